@@ -1,0 +1,3 @@
+//! The `hangline` command line: a thin layer over the library.
+
+fn main() {}

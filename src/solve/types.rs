@@ -1,0 +1,222 @@
+//! The solver's vocabulary: what is asked ([`Form`], [`Condition`]) and what
+//! comes back ([`Solution`]), or why nothing does ([`SolveError`]).
+
+use std::fmt;
+
+use kurbo::{Point, Vec2};
+use serde::Serialize;
+use thiserror::Error;
+
+/// Which way the funicular carries its loads.
+#[derive(Clone, Copy, Debug, PartialEq, Eq, Serialize)]
+#[serde(rename_all = "lowercase")]
+pub enum Form {
+    /// Pure tension, hanging below the chord between the supports.
+    Cable,
+    /// Pure compression, standing above the chord.
+    Arch,
+}
+
+impl Form {
+    /// `+1` for a cable, `−1` for an arch: the sign of the x-component of
+    /// every segment's tension vector.
+    #[must_use]
+    pub fn sign(self) -> f64 {
+        match self {
+            Form::Cable => 1.0,
+            Form::Arch => -1.0,
+        }
+    }
+}
+
+impl fmt::Display for Form {
+    fn fmt(&self, f: &mut fmt::Formatter<'_>) -> fmt::Result {
+        f.write_str(match self {
+            Form::Cable => "cable",
+            Form::Arch => "arch",
+        })
+    }
+}
+
+/// One condition that picks a member of the three-parameter family of
+/// funiculars. Each fixed support point of the structure counts as a
+/// condition as well; exactly three are needed in all.
+///
+/// Lengths are in the structure's length unit, forces in its force unit.
+#[derive(Clone, Copy, Debug, PartialEq)]
+pub enum Condition {
+    /// The profile passes through this point.
+    Through(Point),
+    /// The horizontal component of the force at the left support, H > 0.
+    Thrust(f64),
+    /// The largest vertical distance between the chord joining the two
+    /// supports and the profile, f > 0: the sag of a cable or the rise of an
+    /// arch.
+    Sag(f64),
+    /// The largest segment force (magnitude), T > 0.
+    MaxForce(f64),
+    /// The profile is level (zero slope) at this x: the low point of a cable
+    /// or the crown of an arch lies in the segment that spans x.
+    LevelAt(f64),
+}
+
+/// A condition as the solver used it, for reports.
+#[derive(Clone, Debug, PartialEq, Serialize)]
+pub struct UsedCondition {
+    /// `left-support`, `right-support`, `through`, `thrust`, `sag`, `rise`,
+    /// `max-force` or `level-at`.
+    pub kind: &'static str,
+    /// The point, for point conditions.
+    #[serde(skip_serializing_if = "Option::is_none")]
+    pub point: Option<[f64; 2]>,
+    /// The value (length, force or x), for the others.
+    #[serde(skip_serializing_if = "Option::is_none")]
+    pub value: Option<f64>,
+}
+
+/// One straight segment of the funicular polygon.
+#[derive(Clone, Copy, Debug, PartialEq)]
+pub struct Segment {
+    /// Axial force, tension positive (negative in an arch).
+    pub force: f64,
+    /// Length of the segment.
+    pub length: f64,
+    /// Tension vector tₖ = O − aₖ: the force the segment exerts on its left
+    /// end node, pointing from the left end to the right end for a cable.
+    pub vector: Vec2,
+}
+
+/// Where the largest vertical chord-to-profile distance occurs.
+#[derive(Clone, Copy, Debug, PartialEq)]
+pub struct Sag {
+    /// The distance, > 0 (sag of a cable, rise of an arch).
+    pub value: f64,
+    /// Its x (always at a node of the polygon).
+    pub x: f64,
+    /// The chord's y at `x`.
+    pub chord_y: f64,
+    /// The profile's y at `x`.
+    pub profile_y: f64,
+}
+
+/// The height found for a tower axis.
+#[derive(Clone, Copy, Debug, PartialEq)]
+pub struct TowerFound {
+    /// 0 for the left support, 1 for the right.
+    pub side: usize,
+    /// Where the profile meets the axis.
+    pub at: Point,
+    /// `at.y` minus the y of the axis line's lower end.
+    pub height: f64,
+    /// How far `at` lies above the drawn axis line's upper end (negative
+    /// when below it).
+    pub above_top: f64,
+}
+
+/// How well the solution satisfies what it must.
+#[derive(Clone, Copy, Debug, PartialEq, Serialize)]
+pub struct Checks {
+    /// Largest force imbalance at any node, divided by the total load.
+    pub equilibrium: f64,
+    /// For vertical loads: the largest difference between the polygon's
+    /// ordinates and the closed form y = chord(x) ∓ M(x)/H (M the simple-beam
+    /// moment, Beer & Johnston, *Vector Mechanics for Engineers: Statics*,
+    /// §7.8–7.9), divided by the span. `None` when some load is inclined.
+    pub closed_form: Option<f64>,
+    /// Largest residual of the conditions, relative to their scale.
+    pub conditions: f64,
+}
+
+/// A funicular polygon and its force diagram.
+#[derive(Clone, Debug, PartialEq)]
+pub struct Solution {
+    /// Cable or arch.
+    pub form: Form,
+    /// Load line a₀ … aₙ in force space (force units), a₀ at the origin and
+    /// aₖ = aₖ₋₁ + Pₖ: n + 1 points.
+    pub load_line: Vec<Point>,
+    /// The pole O in force space.
+    pub pole: Point,
+    /// Where the closing line (through O, parallel to the chord joining the
+    /// supports) meets the line a₀aₙ, in force space; `None` if parallel.
+    pub closing_point: Option<Point>,
+    /// Polygon nodes: the left support, one node per load left to right, the
+    /// right support: n + 2 points.
+    pub nodes: Vec<Point>,
+    /// Segments between consecutive nodes: n + 1.
+    pub segments: Vec<Segment>,
+    /// Force of each support on the structure, left then right.
+    pub reactions: [Vec2; 2],
+    /// Horizontal component of the force at the left support (> 0). For
+    /// vertical loads it is the same in every segment: the pole distance H.
+    pub thrust: f64,
+    /// The largest vertical chord-to-profile distance and where.
+    pub sag: Sag,
+    /// Index of the segment with the largest force magnitude.
+    pub max_segment: usize,
+    /// Heights found where a support is a tower axis.
+    pub towers: Vec<TowerFound>,
+    /// The conditions, as used.
+    pub conditions: Vec<UsedCondition>,
+    /// Self-checks of the result.
+    pub checks: Checks,
+    /// Things the user should know (a second solution exists, …).
+    pub warnings: Vec<String>,
+}
+
+impl Solution {
+    /// The largest segment force magnitude.
+    #[must_use]
+    pub fn max_force(&self) -> f64 {
+        self.segments[self.max_segment].force.abs()
+    }
+
+    /// Sum of the segment lengths.
+    #[must_use]
+    pub fn length(&self) -> f64 {
+        self.segments.iter().map(|s| s.length).sum()
+    }
+}
+
+/// Why no funicular could be found.
+#[derive(Debug, Error, PartialEq)]
+pub enum SolveError {
+    /// Not exactly three conditions.
+    #[error("{given} condition(s) given ({list}); a funicular needs exactly 3. {advice}")]
+    Count {
+        /// How many were given.
+        given: usize,
+        /// The conditions given, described.
+        list: String,
+        /// What to add or drop.
+        advice: String,
+    },
+    /// Conditions that fix the same thing, or contradict each other.
+    #[error("the conditions {list} {problem}; {advice}")]
+    Dependent {
+        /// The conditions involved, described.
+        list: String,
+        /// What is wrong with them.
+        problem: String,
+        /// What to do.
+        advice: String,
+    },
+    /// A condition with a value that cannot be right (negative sag, x outside the span).
+    #[error("{condition}: {problem}")]
+    BadValue {
+        /// The condition, described.
+        condition: String,
+        /// What is wrong and what to do.
+        problem: String,
+    },
+    /// The conditions are consistent but no funicular of the asked form meets them.
+    #[error("no {form} meets the conditions {list}: {reason}")]
+    NoSolution {
+        /// Cable or arch.
+        form: Form,
+        /// The conditions, described.
+        list: String,
+        /// Why, and what to change.
+        reason: String,
+    },
+}
