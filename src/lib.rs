@@ -18,6 +18,7 @@
 //!   every byte of the user's drawing.
 //! * [`report`] is the machine-readable summary.
 
-pub mod units;
+pub mod dxf;
 pub mod model;
 pub mod solve;
+pub mod units;

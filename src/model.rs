@@ -124,11 +124,7 @@ impl Load {
     /// A downward vertical load of magnitude `w` acting at `x`.
     #[must_use]
     pub fn vertical(x: f64, w: f64, origin: Origin) -> Load {
-        Load {
-            anchor: Point::new(x, origin.at.y),
-            force: Vec2::new(0.0, -w),
-            origin,
-        }
+        Load { anchor: Point::new(x, origin.at.y), force: Vec2::new(0.0, -w), origin }
     }
 
     /// True when the load acts straight down (or up).
@@ -196,14 +192,12 @@ pub enum ModelError {
         detail: String,
     },
     /// Two supports at the same x.
-    #[error(
-        "the two supports ({a}; {b}) are at the same x = {x}; a span needs supports apart in x: move one of them"
-    )]
+    #[error("the two supports ({a}; {b}) are at the same x = {x}; a span needs supports apart in x: move one of them")]
     SameX {
         /// First support.
-        a: Origin,
+        a: String,
         /// Second support.
-        b: Origin,
+        b: String,
         /// Their common x.
         x: String,
     },
@@ -221,7 +215,7 @@ pub enum ModelError {
         /// Which quantity.
         what: &'static str,
         /// The offending entity.
-        origin: Origin,
+        origin: String,
         /// The value as read.
         value: String,
     },
@@ -229,7 +223,7 @@ pub enum ModelError {
     #[error("the load of {origin} is {value}; a load must be a positive force: fix its label")]
     NotPositive {
         /// The offending load.
-        origin: Origin,
+        origin: String,
         /// The magnitude.
         value: String,
     },
@@ -239,7 +233,7 @@ pub enum ModelError {
     )]
     OutsideSpan {
         /// The load.
-        origin: Origin,
+        origin: String,
         /// Its x.
         x: String,
         /// Left support x.
@@ -248,14 +242,12 @@ pub enum ModelError {
         right: String,
     },
     /// Two vertical loads on the same line of action.
-    #[error(
-        "the loads of {a} and {b} act on the same vertical x = {x}; combine them into one load with one label"
-    )]
+    #[error("the loads of {a} and {b} act on the same vertical x = {x}; combine them into one load with one label")]
     SameLine {
         /// First load.
-        a: Origin,
+        a: String,
         /// Second load.
-        b: Origin,
+        b: String,
         /// Their common x.
         x: String,
     },
@@ -265,7 +257,7 @@ pub enum ModelError {
     )]
     Horizontal {
         /// The load.
-        origin: Origin,
+        origin: String,
     },
 }
 
@@ -277,7 +269,7 @@ fn check_finite(what: &'static str, v: f64, origin: &Origin) -> Result<(), Model
     if v.is_finite() && v.abs() < LIMIT {
         Ok(())
     } else {
-        Err(ModelError::NotFinite { what, origin: origin.clone(), value: format!("{v}") })
+        Err(ModelError::NotFinite { what, origin: origin.to_string(), value: format!("{v}") })
     }
 }
 
@@ -314,11 +306,7 @@ impl Structure {
             } else {
                 supports.iter().map(|s| s.origin().to_string()).collect::<Vec<_>>().join("; ")
             };
-            return Err(ModelError::SupportCount {
-                found: supports.len(),
-                layer: supports_layer.to_string(),
-                detail,
-            });
+            return Err(ModelError::SupportCount { found: supports.len(), layer: supports_layer.to_string(), detail });
         }
         let mut supports = supports;
         supports.sort_by(|a, b| a.x().total_cmp(&b.x()));
@@ -326,8 +314,8 @@ impl Structure {
         let left = supports.pop().expect("two supports checked above");
         if left.x() == right.x() {
             return Err(ModelError::SameX {
-                a: left.origin().clone(),
-                b: right.origin().clone(),
+                a: left.origin().to_string(),
+                b: right.origin().to_string(),
                 x: fmt_num(left.x()),
             });
         }
@@ -341,14 +329,14 @@ impl Structure {
             check_finite("the force", l.force.y, &l.origin)?;
             let m = l.magnitude();
             if m <= 0.0 || m.is_nan() {
-                return Err(ModelError::NotPositive { origin: l.origin.clone(), value: fmt_num(m) });
+                return Err(ModelError::NotPositive { origin: l.origin.to_string(), value: fmt_num(m) });
             }
             if l.force.y == 0.0 {
-                return Err(ModelError::Horizontal { origin: l.origin.clone() });
+                return Err(ModelError::Horizontal { origin: l.origin.to_string() });
             }
             if l.is_vertical() && !(l.anchor.x > left.x() && l.anchor.x < right.x()) {
                 return Err(ModelError::OutsideSpan {
-                    origin: l.origin.clone(),
+                    origin: l.origin.to_string(),
                     x: fmt_num(l.anchor.x),
                     left: fmt_num(left.x()),
                     right: fmt_num(right.x()),
@@ -359,8 +347,8 @@ impl Structure {
         for pair in loads.windows(2) {
             if pair[0].is_vertical() && pair[1].is_vertical() && pair[0].anchor.x == pair[1].anchor.x {
                 return Err(ModelError::SameLine {
-                    a: pair[0].origin.clone(),
-                    b: pair[1].origin.clone(),
+                    a: pair[0].origin.to_string(),
+                    b: pair[1].origin.to_string(),
                     x: fmt_num(pair[0].anchor.x),
                 });
             }

@@ -104,11 +104,7 @@ impl LengthUnit {
     /// Factor that turns a length in `self` into a length in `to`.
     #[must_use]
     pub fn factor_to(self, to: LengthUnit) -> f64 {
-        if self == to {
-            1.0
-        } else {
-            self.metres() / to.metres()
-        }
+        if self == to { 1.0 } else { self.metres() / to.metres() }
     }
 }
 
@@ -133,9 +129,7 @@ impl FromStr for LengthUnit {
             "ft" | "'" => LengthUnit::Foot,
             "yd" => LengthUnit::Yard,
             _ => {
-                return Err(format!(
-                    "'{t}' is not a length unit; use one of mm, cm, dm, m, km, in, ft, yd"
-                ));
+                return Err(format!("'{t}' is not a length unit; use one of mm, cm, dm, m, km, in, ft, yd"));
             }
         };
         Ok(unit)
@@ -164,13 +158,8 @@ pub enum ForceUnit {
 
 impl ForceUnit {
     /// Every unit, for help texts.
-    pub const ALL: [ForceUnit; 5] = [
-        ForceUnit::Newton,
-        ForceUnit::Kilonewton,
-        ForceUnit::Meganewton,
-        ForceUnit::PoundForce,
-        ForceUnit::Kip,
-    ];
+    pub const ALL: [ForceUnit; 5] =
+        [ForceUnit::Newton, ForceUnit::Kilonewton, ForceUnit::Meganewton, ForceUnit::PoundForce, ForceUnit::Kip];
 
     /// One of this unit in newtons.
     ///
@@ -202,11 +191,7 @@ impl ForceUnit {
     /// Factor that turns a force in `self` into a force in `to`.
     #[must_use]
     pub fn factor_to(self, to: ForceUnit) -> f64 {
-        if self == to {
-            1.0
-        } else {
-            self.newtons() / to.newtons()
-        }
+        if self == to { 1.0 } else { self.newtons() / to.newtons() }
     }
 }
 
@@ -232,9 +217,7 @@ impl FromStr for ForceUnit {
                 "lbf" | "lb" | "lbs" => ForceUnit::PoundForce,
                 "kip" | "kips" => ForceUnit::Kip,
                 _ => {
-                    return Err(format!(
-                        "'{t}' is not a force unit; use one of N, kN, MN, lbf, kip"
-                    ));
+                    return Err(format!("'{t}' is not a force unit; use one of N, kN, MN, lbf, kip"));
                 }
             },
         };

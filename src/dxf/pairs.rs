@@ -1,0 +1,399 @@
+//! The group-code/value pairs of a DXF file, ASCII or binary, read in place.
+//!
+//! A [`Pair`] borrows its value from the file's bytes and knows the byte span
+//! it occupies, so that a writer can copy any run of the input unchanged.
+//! Nothing is decoded until asked for: the scanner only looks at codes and
+//! at the few values it needs.
+
+use std::ops::Range;
+
+use super::DxfError;
+
+/// The sentinel that opens a binary DXF file (DXF reference, "Binary DXF Files").
+pub const BINARY_SENTINEL: &[u8; 22] = b"AutoCAD Binary DXF\r\n\x1a\x00";
+
+/// How the file stores its pairs.
+#[derive(Clone, Copy, Debug, PartialEq, Eq)]
+pub enum Format {
+    /// Text: a group code line, then a value line.
+    Ascii,
+    /// Binary, with 1-byte group codes (R12 and before) or 2-byte codes (R13 on).
+    Binary {
+        /// True when group codes take two bytes.
+        wide_codes: bool,
+    },
+}
+
+/// How a binary value of a group code is stored, after the binary DXF
+/// layout of the DXF reference ("Group Code Value Types"), as written and
+/// read by ezdxf 1.4.
+#[derive(Clone, Copy, Debug, PartialEq, Eq)]
+pub enum Kind {
+    /// Zero-terminated string.
+    Text,
+    /// 8-byte IEEE double.
+    Double,
+    /// 1-byte value (booleans, 290–299).
+    Int8,
+    /// 2-byte signed integer.
+    Int16,
+    /// 4-byte signed integer.
+    Int32,
+    /// 8-byte signed integer.
+    Int64,
+    /// Binary chunk: a length byte, then that many bytes (310–319, 1004).
+    Chunk,
+}
+
+/// The storage kind of a group code.
+#[must_use]
+pub fn kind_of(code: i32) -> Kind {
+    match code {
+        10..=59 | 110..=149 | 210..=239 | 460..=469 | 1010..=1059 => Kind::Double,
+        60..=79 | 170..=179 | 270..=289 | 370..=389 | 400..=409 | 1060..=1070 => Kind::Int16,
+        90..=99 | 420..=429 | 440..=459 | 1071 => Kind::Int32,
+        160..=169 => Kind::Int64,
+        290..=299 => Kind::Int8,
+        310..=319 | 1004 => Kind::Chunk,
+        _ => Kind::Text,
+    }
+}
+
+/// One group code and its value, borrowed from the file.
+#[derive(Clone, Copy, Debug)]
+pub struct Pair<'a> {
+    /// The group code.
+    pub code: i32,
+    /// The value's bytes: for ASCII the value line without its line end; for
+    /// binary the stored bytes (a string without its terminator).
+    pub raw: &'a [u8],
+    /// Byte offset where the pair starts (its group code).
+    pub start: usize,
+    /// Byte offset just past the pair.
+    pub end: usize,
+    /// Byte span of the value itself.
+    pub value: (usize, usize),
+    binary: bool,
+}
+
+impl<'a> Pair<'a> {
+    /// The value as a number, for numeric codes (or a numeric ASCII string).
+    #[must_use]
+    pub fn f64(&self) -> Option<f64> {
+        if self.binary {
+            match kind_of(self.code) {
+                Kind::Double => self.raw.try_into().ok().map(f64::from_le_bytes),
+                _ => self.i64().map(|v| v as f64),
+            }
+        } else {
+            std::str::from_utf8(self.raw).ok()?.trim().parse().ok()
+        }
+    }
+
+    /// The value as an integer, for integer codes (or an integer ASCII string).
+    #[must_use]
+    pub fn i64(&self) -> Option<i64> {
+        if self.binary {
+            let r = self.raw;
+            match kind_of(self.code) {
+                Kind::Int8 => r.first().map(|&b| i64::from(b)),
+                Kind::Int16 => r.try_into().ok().map(|b| i64::from(i16::from_le_bytes(b))),
+                Kind::Int32 => r.try_into().ok().map(|b| i64::from(i32::from_le_bytes(b))),
+                Kind::Int64 => r.try_into().ok().map(i64::from_le_bytes),
+                _ => None,
+            }
+        } else {
+            let s = std::str::from_utf8(self.raw).ok()?.trim();
+            s.parse().ok().or_else(|| {
+                // Some writers put integers as "1.0".
+                let v: f64 = s.parse().ok()?;
+                (v.fract() == 0.0 && v.abs() < 9e15).then_some(v as i64)
+            })
+        }
+    }
+
+    /// The value's bytes as a string value, with ASCII padding removed
+    /// (trailing spaces and, for ASCII files, a trailing carriage return are
+    /// already gone).
+    #[must_use]
+    pub fn bytes(&self) -> &'a [u8] {
+        self.raw
+    }
+
+    /// True when the value equals `s` (exact bytes, after trimming surrounding
+    /// blanks in ASCII files).
+    #[must_use]
+    pub fn is(&self, s: &str) -> bool {
+        if self.binary { self.raw == s.as_bytes() } else { trim_ascii(self.raw) == s.as_bytes() }
+    }
+
+    /// A hexadecimal handle value (codes 5, 105, 320–369, 390–399, 480–481).
+    #[must_use]
+    pub fn handle(&self) -> Option<u64> {
+        let s = std::str::from_utf8(trim_ascii(self.raw)).ok()?;
+        if s.is_empty() || s.len() > 16 {
+            return None;
+        }
+        u64::from_str_radix(s, 16).ok()
+    }
+
+    /// The byte range of the whole pair.
+    #[must_use]
+    pub fn span(&self) -> Range<usize> {
+        self.start..self.end
+    }
+}
+
+fn trim_ascii(b: &[u8]) -> &[u8] {
+    b.trim_ascii()
+}
+
+/// Reads pairs one after another from `bytes`, starting at `pos`.
+#[derive(Clone, Debug)]
+pub struct Pairs<'a> {
+    bytes: &'a [u8],
+    pos: usize,
+    format: Format,
+    /// 1-based line number of the next group code line (ASCII only).
+    line: usize,
+}
+
+impl<'a> Pairs<'a> {
+    /// Pairs of the whole file; detects the format from the binary sentinel.
+    pub fn new(bytes: &'a [u8]) -> Result<Pairs<'a>, DxfError> {
+        if bytes.starts_with(BINARY_SENTINEL) {
+            let rest = &bytes[BINARY_SENTINEL.len()..];
+            // The first pair is (0, "SECTION"): with 2-byte codes the second
+            // byte is the code's high byte, 0; with 1-byte codes it is 'S'.
+            let wide = match rest {
+                [0, 0, b'S', ..] => true,
+                [0, b'S', ..] => false,
+                _ => return Err(DxfError::NotDxf { detail: "binary DXF sentinel not followed by a SECTION".into() }),
+            };
+            Ok(Pairs { bytes, pos: BINARY_SENTINEL.len(), format: Format::Binary { wide_codes: wide }, line: 0 })
+        } else {
+            Ok(Pairs { bytes, pos: 0, format: Format::Ascii, line: 1 })
+        }
+    }
+
+    /// Pairs of a part of a file whose format is known, starting at byte `pos`.
+    #[must_use]
+    pub fn at(bytes: &'a [u8], format: Format, pos: usize) -> Pairs<'a> {
+        Pairs { bytes, pos, format, line: 0 }
+    }
+
+    /// The file's format.
+    #[must_use]
+    pub fn format(&self) -> Format {
+        self.format
+    }
+
+    /// Where the next pair starts.
+    #[must_use]
+    pub fn position(&self) -> usize {
+        self.pos
+    }
+
+    /// A description of where the reader is, for messages: a line number for
+    /// ASCII files read from the start, else a byte offset.
+    #[must_use]
+    pub fn location(&self) -> String {
+        if self.format == Format::Ascii && self.line > 0 {
+            format!("line {}", self.line)
+        } else {
+            format!("byte {}", self.pos)
+        }
+    }
+
+    /// The next pair, `Ok(None)` at the end of the bytes.
+    pub fn next_pair(&mut self) -> Result<Option<Pair<'a>>, DxfError> {
+        if self.pos >= self.bytes.len() {
+            return Ok(None);
+        }
+        match self.format {
+            Format::Ascii => self.next_ascii(),
+            Format::Binary { wide_codes } => self.next_binary(wide_codes),
+        }
+    }
+
+    fn next_line(&mut self) -> Option<(&'a [u8], usize)> {
+        let bytes = self.bytes;
+        if self.pos >= bytes.len() {
+            return None;
+        }
+        let start = self.pos;
+        let (line_end, next) = match memchr::memchr(b'\n', &bytes[start..]) {
+            Some(i) => (start + i, start + i + 1),
+            None => (bytes.len(), bytes.len()),
+        };
+        let mut line = &bytes[start..line_end];
+        if let [head @ .., b'\r'] = line {
+            line = head;
+        }
+        self.pos = next;
+        if self.line > 0 {
+            self.line += 1;
+        }
+        Some((line, start))
+    }
+
+    fn next_ascii(&mut self) -> Result<Option<Pair<'a>>, DxfError> {
+        let code_line_no = self.line;
+        let Some((code_line, start)) = self.next_line() else { return Ok(None) };
+        let code_text = code_line.trim_ascii();
+        if code_text.is_empty() && self.pos >= self.bytes.len() {
+            // A trailing blank line after EOF.
+            return Ok(None);
+        }
+        let code = parse_code(code_text).ok_or_else(|| DxfError::BadCode {
+            location: if code_line_no > 0 { format!("line {code_line_no}") } else { format!("byte {start}") },
+            text: String::from_utf8_lossy(&code_text[..code_text.len().min(40)]).into_owned(),
+        })?;
+        let value_start = self.pos;
+        let Some((raw, _)) = self.next_line() else {
+            return Err(DxfError::Truncated {
+                location: self.location(),
+                detail: format!("group code {code} has no value"),
+            });
+        };
+        // Strings may carry meaningful leading blanks; trailing blanks are padding.
+        let raw = raw.trim_ascii_end();
+        Ok(Some(Pair { code, raw, start, end: self.pos, value: (value_start, value_start + raw.len()), binary: false }))
+    }
+
+    fn next_binary(&mut self, wide: bool) -> Result<Option<Pair<'a>>, DxfError> {
+        let bytes = self.bytes;
+        let start = self.pos;
+        let truncated =
+            |what: &str| DxfError::Truncated { location: format!("byte {start}"), detail: what.to_string() };
+        let mut p = start;
+        let code = if wide {
+            let b = bytes.get(p..p + 2).ok_or_else(|| truncated("a group code is cut off"))?;
+            p += 2;
+            i32::from(i16::from_le_bytes([b[0], b[1]]))
+        } else {
+            let b = *bytes.get(p).ok_or_else(|| truncated("a group code is cut off"))?;
+            p += 1;
+            if b == 255 {
+                let e = bytes.get(p..p + 2).ok_or_else(|| truncated("a group code is cut off"))?;
+                p += 2;
+                i32::from(i16::from_le_bytes([e[0], e[1]]))
+            } else {
+                i32::from(b)
+            }
+        };
+        let (value_start, value_end, next) = match kind_of(code) {
+            Kind::Text => {
+                let rest = bytes.get(p..).unwrap_or_default();
+                let n = memchr::memchr(0, rest).ok_or_else(|| truncated("a string value has no terminator"))?;
+                (p, p + n, p + n + 1)
+            }
+            Kind::Chunk => {
+                let n = usize::from(*bytes.get(p).ok_or_else(|| truncated("a binary chunk is cut off"))?);
+                (p + 1, p + 1 + n, p + 1 + n)
+            }
+            k => {
+                let n = match k {
+                    Kind::Int8 => 1,
+                    Kind::Int16 => 2,
+                    Kind::Int32 => 4,
+                    _ => 8,
+                };
+                (p, p + n, p + n)
+            }
+        };
+        if value_end > bytes.len() {
+            return Err(truncated("a value is cut off"));
+        }
+        self.pos = next;
+        Ok(Some(Pair {
+            code,
+            raw: &bytes[value_start..value_end],
+            start,
+            end: next,
+            value: (value_start, value_end),
+            binary: true,
+        }))
+    }
+}
+
+fn parse_code(t: &[u8]) -> Option<i32> {
+    let s = std::str::from_utf8(t).ok()?;
+    let v: i32 = s.parse().ok()?;
+    (-5..=1071).contains(&v).then_some(v)
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    #[test]
+    fn ascii_pairs_with_crlf_and_padding() {
+        let src = b"  0\r\nSECTION\r\n  2\r\nHEADER\r\n 10\r\n1.5  \r\n";
+        let mut p = Pairs::new(src).unwrap();
+        let a = p.next_pair().unwrap().unwrap();
+        assert_eq!((a.code, a.raw), (0, &b"SECTION"[..]));
+        assert_eq!(a.span(), 0..14);
+        let b = p.next_pair().unwrap().unwrap();
+        assert!(b.is("HEADER"));
+        let c = p.next_pair().unwrap().unwrap();
+        assert_eq!(c.f64(), Some(1.5));
+        assert!(p.next_pair().unwrap().is_none());
+    }
+
+    #[test]
+    fn ascii_missing_value_is_truncation() {
+        let mut p = Pairs::new(b"0\nSECTION\n2\n").unwrap();
+        p.next_pair().unwrap();
+        let e = p.next_pair().unwrap_err();
+        assert!(matches!(e, DxfError::Truncated { .. }), "{e}");
+    }
+
+    #[test]
+    fn ascii_bad_code_names_the_line() {
+        let mut p = Pairs::new(b"0\nSECTION\nhello\nx\n").unwrap();
+        p.next_pair().unwrap();
+        let e = p.next_pair().unwrap_err().to_string();
+        assert!(e.contains("line 3"), "{e}");
+    }
+
+    #[test]
+    fn binary_wide_codes() {
+        let mut src = BINARY_SENTINEL.to_vec();
+        src.extend_from_slice(&[0, 0]);
+        src.extend_from_slice(b"SECTION\0");
+        src.extend_from_slice(&[10, 0]);
+        src.extend_from_slice(&2.5f64.to_le_bytes());
+        src.extend_from_slice(&[70, 0, 7, 0]);
+        let mut p = Pairs::new(&src).unwrap();
+        assert_eq!(p.format(), Format::Binary { wide_codes: true });
+        assert!(p.next_pair().unwrap().unwrap().is("SECTION"));
+        assert_eq!(p.next_pair().unwrap().unwrap().f64(), Some(2.5));
+        assert_eq!(p.next_pair().unwrap().unwrap().i64(), Some(7));
+    }
+
+    #[test]
+    fn binary_narrow_codes_with_escape() {
+        let mut src = BINARY_SENTINEL.to_vec();
+        src.push(0);
+        src.extend_from_slice(b"SECTION\0");
+        src.extend_from_slice(&[255, 0xE8, 0x03]); // 1000
+        src.extend_from_slice(b"x\0");
+        let mut p = Pairs::new(&src).unwrap();
+        p.next_pair().unwrap();
+        let x = p.next_pair().unwrap().unwrap();
+        assert_eq!(x.code, 1000);
+        assert_eq!(x.raw, b"x");
+    }
+
+    #[test]
+    fn binary_cut_value_is_truncation() {
+        let mut src = BINARY_SENTINEL.to_vec();
+        src.extend_from_slice(&[0, 0]);
+        src.extend_from_slice(b"SECTION\0");
+        src.extend_from_slice(&[10, 0, 1, 2]);
+        let mut p = Pairs::new(&src).unwrap();
+        p.next_pair().unwrap();
+        assert!(matches!(p.next_pair(), Err(DxfError::Truncated { .. })));
+    }
+}
