@@ -19,6 +19,8 @@
 //! * [`report`] is the machine-readable summary.
 
 pub mod dxf;
+pub mod layout;
 pub mod model;
 pub mod solve;
 pub mod units;
+pub mod write;

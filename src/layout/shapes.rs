@@ -1,0 +1,209 @@
+//! The plain shapes the layout produces and the writer encodes.
+//!
+//! Coordinates are in drawing units, in the drawing's world coordinates.
+
+use std::fmt;
+
+use kurbo::{Line, Point};
+
+/// The kinds of thing the tool draws, each on a layer of its own.
+#[derive(Clone, Copy, Debug, PartialEq, Eq, Hash, PartialOrd, Ord)]
+pub enum Role {
+    /// The funicular polygon.
+    Profile,
+    /// Hangers (cable) or posts (arch) between deck and profile.
+    Hangers,
+    /// The force diagram: load line, pole, rays, closing line, scale bar.
+    Diagram,
+    /// Force annotations on the members and at the supports.
+    Forces,
+    /// Dimensions: span, sag or rise, tower heights, clearance.
+    Dimensions,
+    /// Bow's notation letters, in the form and the force diagram.
+    Bow,
+    /// Title and caution notes.
+    Notes,
+}
+
+impl Role {
+    /// Every role, in drawing order.
+    pub const ALL: [Role; 7] =
+        [Role::Profile, Role::Hangers, Role::Diagram, Role::Forces, Role::Dimensions, Role::Bow, Role::Notes];
+
+    /// The key used on the command line (`--layer profile=NAME`) and in reports.
+    #[must_use]
+    pub fn key(self) -> &'static str {
+        match self {
+            Role::Profile => "profile",
+            Role::Hangers => "hangers",
+            Role::Diagram => "diagram",
+            Role::Forces => "forces",
+            Role::Dimensions => "dimensions",
+            Role::Bow => "bow",
+            Role::Notes => "notes",
+        }
+    }
+
+    /// The default layer name.
+    #[must_use]
+    pub fn default_layer(self) -> &'static str {
+        match self {
+            Role::Profile => "HANGLINE-PROFILE",
+            Role::Hangers => "HANGLINE-HANGERS",
+            Role::Diagram => "HANGLINE-FORCE-DIAGRAM",
+            Role::Forces => "HANGLINE-FORCES",
+            Role::Dimensions => "HANGLINE-DIMENSIONS",
+            Role::Bow => "HANGLINE-BOW",
+            Role::Notes => "HANGLINE-NOTES",
+        }
+    }
+
+    /// The layer's colour, an AutoCAD Colour Index chosen to tell the
+    /// layers apart on a white or a black background.
+    #[must_use]
+    pub fn colour(self) -> i16 {
+        match self {
+            Role::Profile => 6,
+            Role::Hangers => 8,
+            Role::Diagram => 5,
+            Role::Forces => 3,
+            Role::Dimensions => 4,
+            Role::Bow => 30,
+            Role::Notes => 7,
+        }
+    }
+}
+
+impl fmt::Display for Role {
+    fn fmt(&self, f: &mut fmt::Formatter<'_>) -> fmt::Result {
+        f.write_str(self.key())
+    }
+}
+
+/// Horizontal text alignment (DXF TEXT group 72).
+#[derive(Clone, Copy, Debug, PartialEq, Eq)]
+pub enum HAlign {
+    /// Anchor at the text's left end.
+    Left,
+    /// Anchor at the text's centre.
+    Center,
+    /// Anchor at the text's right end.
+    Right,
+}
+
+/// Vertical text alignment (DXF TEXT group 73).
+#[derive(Clone, Copy, Debug, PartialEq, Eq)]
+pub enum VAlign {
+    /// Anchor on the baseline.
+    Baseline,
+    /// Anchor at the bottom of descenders.
+    Bottom,
+    /// Anchor at mid-height.
+    Middle,
+    /// Anchor at the top.
+    Top,
+}
+
+/// A single line of text.
+#[derive(Clone, Debug, PartialEq)]
+pub struct Text {
+    /// The anchor point.
+    pub at: Point,
+    /// Cap height in drawing units.
+    pub height: f64,
+    /// Rotation in degrees, counter-clockwise from +x.
+    pub rotation: f64,
+    /// The text (plain, no formatting codes).
+    pub content: String,
+    /// Horizontal alignment of the anchor.
+    pub h: HAlign,
+    /// Vertical alignment of the anchor.
+    pub v: VAlign,
+}
+
+/// A linear dimension with the geometry it displays.
+#[derive(Clone, Debug, PartialEq)]
+pub struct Dimension {
+    /// Origin of the first extension line (DXF 13).
+    pub p1: Point,
+    /// Origin of the second extension line (DXF 14).
+    pub p2: Point,
+    /// A point on the dimension line, at the second extension line (DXF 10).
+    pub line_at: Point,
+    /// Angle of the dimension line in degrees: 0 horizontal, 90 vertical (DXF 50).
+    pub angle: f64,
+    /// Middle of the text (DXF 11).
+    pub text_at: Point,
+    /// The measured distance, drawing units.
+    pub measurement: f64,
+    /// Text override (DXF 1): `<>` stands for the measurement.
+    pub override_text: String,
+    /// What the dimension shows, in world coordinates: the content of its
+    /// anonymous `*D` block.
+    pub geometry: Vec<Shape>,
+}
+
+/// A drawable shape.
+#[derive(Clone, Debug, PartialEq)]
+pub enum Shape {
+    /// A straight line.
+    Line(Line),
+    /// A polyline through the points.
+    Polyline {
+        /// Vertices.
+        points: Vec<Point>,
+        /// True for a closed outline.
+        closed: bool,
+    },
+    /// A circle.
+    Circle {
+        /// Centre.
+        center: Point,
+        /// Radius.
+        radius: f64,
+    },
+    /// A filled triangle (arrowheads).
+    Solid([Point; 3]),
+    /// A line of text.
+    Text(Text),
+    /// A linear dimension.
+    Dimension(Box<Dimension>),
+}
+
+/// A shape on a role's layer, with an optional colour of its own.
+#[derive(Clone, Debug, PartialEq)]
+pub struct Item {
+    /// Which layer it goes on.
+    pub role: Role,
+    /// What to draw.
+    pub shape: Shape,
+    /// AutoCAD Colour Index, or `None` for the layer's colour.
+    pub colour: Option<i16>,
+}
+
+/// Sizes for the dimension style the writer declares, so that a dimension
+/// regenerated by a CAD program looks like the one drawn.
+#[derive(Clone, Copy, Debug, PartialEq)]
+pub struct DimStyle {
+    /// Text height (DIMTXT).
+    pub text_height: f64,
+    /// Arrow size (DIMASZ).
+    pub arrow: f64,
+    /// Extension line offset from the origin (DIMEXO).
+    pub ext_offset: f64,
+    /// Extension line extension beyond the dimension line (DIMEXE).
+    pub ext_extend: f64,
+    /// Gap around the text (DIMGAP).
+    pub gap: f64,
+    /// Decimal places (DIMDEC).
+    pub decimals: i64,
+}
+
+/// Everything the tool adds to a drawing.
+#[derive(Clone, Debug, PartialEq)]
+pub struct Additions {
+    /// The shapes, in drawing order.
+    pub items: Vec<Item>,
+    /// The dimension style.
+    pub dim_style: DimStyle,
+}

@@ -1,0 +1,354 @@
+//! The writer: the input's bytes, unchanged, with the tool's additions
+//! spliced in.
+//!
+//! Nothing of the user's drawing is parsed and re-emitted: the output is the
+//! input copied run by run, with these edits only —
+//! * new LAYER records before the LAYER table's `ENDTAB` (count raised), and
+//!   the tool's DIMSTYLE before the DIMSTYLE table's `ENDTAB`;
+//! * for each dimension, a BLOCK_RECORD (R13 on) and an anonymous `*D` block
+//!   holding its geometry, before the BLOCKS section's `ENDSEC`;
+//! * new entities, owned by model space, before the ENTITIES section's `ENDSEC`;
+//! * `$HANDSEED` raised past every handle used;
+//! * the tool's own entities from an earlier run (on its output layers), their
+//!   `*D` blocks and block records, left out — so that a second run replaces
+//!   its layers instead of piling up copies.
+//!
+//! New pairs are encoded like the input's (ASCII or binary, line ends, text
+//! encoding) by [`crate::dxf::Encoder`].
+
+mod encode;
+
+use std::collections::HashSet;
+use std::io::Write;
+use std::ops::Range;
+
+use thiserror::Error;
+
+use crate::dxf::{Encoder, File, Release};
+use crate::layout::{Additions, Role, Shape};
+use encode::{DIM_STYLE_NAME, Handles, Pen};
+
+/// The layer name of each output role.
+#[derive(Clone, Debug, PartialEq)]
+pub struct OutputLayers {
+    names: Vec<(Role, String)>,
+}
+
+impl Default for OutputLayers {
+    fn default() -> Self {
+        OutputLayers { names: Role::ALL.iter().map(|r| (*r, r.default_layer().to_string())).collect() }
+    }
+}
+
+impl OutputLayers {
+    /// The layer for `role`.
+    #[must_use]
+    pub fn get(&self, role: Role) -> &str {
+        self.names.iter().find(|(r, _)| *r == role).map_or(role.default_layer(), |(_, n)| n.as_str())
+    }
+
+    /// Renames a role's layer.
+    pub fn set(&mut self, role: Role, name: &str) {
+        for (r, n) in &mut self.names {
+            if *r == role {
+                *n = name.to_string();
+            }
+        }
+    }
+
+    /// Every output layer name.
+    pub fn all(&self) -> impl Iterator<Item = &str> {
+        self.names.iter().map(|(_, n)| n.as_str())
+    }
+}
+
+/// Checks a layer name for the given release (DXF reference, symbol table
+/// names: up to 255 characters without `<>/\":;?*|=‘` from R2000; up to 31
+/// of letters, digits, `$`, `-` and `_` in R12).
+pub fn check_layer_name(name: &str, release: Release) -> Result<(), String> {
+    if name.trim().is_empty() {
+        return Err("a layer name cannot be empty".into());
+    }
+    if release < Release::R2000 {
+        let ok = name.len() <= 31 && name.chars().all(|c| c.is_ascii_alphanumeric() || matches!(c, '$' | '-' | '_'));
+        if !ok {
+            return Err(format!(
+                "'{name}' is not a valid R12–R14 layer name: use up to 31 letters, digits, $, - and _"
+            ));
+        }
+    } else if name.chars().count() > 255 || name.chars().any(|c| "<>/\\\":;?*|=`".contains(c) || c.is_control()) {
+        return Err(format!("'{name}' is not a valid layer name: up to 255 characters, none of <>/\\\":;?*|=`"));
+    }
+    Ok(())
+}
+
+/// Why the output could not be written.
+#[derive(Debug, Error)]
+pub enum WriteError {
+    /// The drawing lacks something the additions must be attached to.
+    #[error("cannot add to this drawing: {0}; open and save it in CAD as a complete drawing, then run again")]
+    Structure(String),
+    /// An output layer name the drawing's version does not allow.
+    #[error("{0}; choose another with --layer ROLE=NAME")]
+    LayerName(String),
+    /// Writing failed.
+    #[error("could not write the output: {0}")]
+    Io(#[from] std::io::Error),
+}
+
+/// What the writer did.
+#[derive(Clone, Debug, Default, PartialEq)]
+pub struct Summary {
+    /// Entities of an earlier run removed from the output layers.
+    pub replaced: usize,
+    /// Entities added to model space.
+    pub added: usize,
+    /// Layers created.
+    pub new_layers: Vec<String>,
+    /// Dimension blocks created.
+    pub blocks: usize,
+}
+
+/// One edit of the input: the bytes in `range` are replaced by `bytes`
+/// (an empty range inserts).
+struct Edit {
+    range: Range<usize>,
+    bytes: Vec<u8>,
+    order: usize,
+}
+
+/// Writes `file` with `additions` to `out`.
+pub fn write(
+    file: &File<'_>,
+    additions: &Additions,
+    layers: &OutputLayers,
+    out: &mut dyn Write,
+) -> Result<Summary, WriteError> {
+    for name in layers.all() {
+        check_layer_name(name, file.release).map_err(WriteError::LayerName)?;
+    }
+    let mut edits: Vec<Edit> = Vec::new();
+    let mut push = |range: Range<usize>, bytes: Vec<u8>| {
+        let order = edits.len();
+        edits.push(Edit { range, bytes, order });
+    };
+    let mut summary = Summary::default();
+    let is_tool_layer = |layer: &str| layers.all().any(|n| crate::dxf::names_match(n, layer));
+
+    // The tool's entities from an earlier run, and the blocks their dimensions own.
+    let mut old_blocks: HashSet<String> = HashSet::new();
+    for e in file.entities.iter().filter(|e| is_tool_layer(&e.layer)) {
+        if e.kind == "DIMENSION"
+            && let Some(p) = file.pairs_in(&e.span).find(|p| p.code == 2)
+        {
+            old_blocks.insert(file.text(p.raw).trim().to_uppercase());
+        }
+        push(e.span.clone(), Vec::new());
+        summary.replaced += 1;
+    }
+    for b in file.blocks.iter().filter(|b| old_blocks.contains(&b.name.to_uppercase())) {
+        push(b.span.clone(), Vec::new());
+    }
+    let modern = file.release.has_subclasses();
+    let record_table = file.table("BLOCK_RECORD");
+    let mut removed_records = 0;
+    if let Some(t) = record_table {
+        for r in t.records.iter().filter(|r| old_blocks.contains(&r.name.to_uppercase())) {
+            push(r.span.clone(), Vec::new());
+            removed_records += 1;
+        }
+    }
+
+    // Handles: from $HANDSEED, but never below a handle already in use.
+    let uses_handles = modern || file.max_handle > 0 || file.header_i64("$HANDLING") == Some(1);
+    let seed_var = file.header_var("$HANDSEED");
+    let seed = if uses_handles {
+        let declared = seed_var
+            .and_then(|v| v.values.first())
+            .and_then(|(_, span)| std::str::from_utf8(&file.bytes[span.clone()]).ok())
+            .and_then(|s| u64::from_str_radix(s.trim(), 16).ok())
+            .unwrap_or(1);
+        Some(declared.max(file.max_handle + 1))
+    } else {
+        None
+    };
+    let mut handles = Handles::new(seed);
+
+    let text_style = file.table("STYLE").and_then(|t| t.find("STANDARD")).map(|r| r.name.clone());
+    let mut pen = Pen { enc: Encoder::for_file(file), release: file.release, handles: &mut handles, text_style };
+
+    let model_space = if modern {
+        let record = record_table
+            .and_then(|t| t.find("*Model_Space"))
+            .ok_or_else(|| WriteError::Structure("it has no *Model_Space block record".into()))?;
+        Some(record.handle.ok_or_else(|| WriteError::Structure("its *Model_Space block record has no handle".into()))?)
+    } else {
+        None
+    };
+
+    // Layers.
+    if let Some(table) = file.table("LAYER") {
+        let linetype = file
+            .table("LTYPE")
+            .and_then(|t| t.find("CONTINUOUS"))
+            .map_or_else(|| "CONTINUOUS".to_string(), |r| r.name.clone());
+        let plot_style =
+            table.find("0").and_then(|r| file.pairs_in(&r.span).find(|p| p.code == 390)).and_then(|p| p.handle());
+        let mut added = 0;
+        for role in Role::ALL {
+            let name = layers.get(role);
+            if table.find(name).is_none() && !summary.new_layers.iter().any(|n| crate::dxf::names_match(n, name)) {
+                pen.layer_record(table.handle, name, role.colour(), &linetype, plot_style);
+                summary.new_layers.push(name.to_string());
+                added += 1;
+            }
+        }
+        push(table.end..table.end, pen.enc.take());
+        if let Some((count, span)) = &table.count {
+            push(span.clone(), pen.enc.value_int(70, count + added).to_vec());
+        }
+    } else if modern {
+        return Err(WriteError::Structure("it has no LAYER table".into()));
+    }
+
+    // Dimensions: style, block records and blocks.
+    let dims: Vec<&Shape> =
+        additions.items.iter().map(|i| &i.shape).filter(|s| matches!(s, Shape::Dimension(_))).collect();
+    let mut block_names: Vec<String> = Vec::new();
+    if !dims.is_empty() {
+        if let Some(t) = file.table("DIMSTYLE")
+            && t.find(DIM_STYLE_NAME).is_none()
+        {
+            pen.dim_style_record(t.handle, &additions.dim_style);
+            push(t.end..t.end, pen.enc.take());
+            if let Some((count, span)) = &t.count {
+                push(span.clone(), pen.enc.value_int(70, count + 1));
+            }
+        }
+        let mut next_d = file
+            .blocks
+            .iter()
+            .filter(|b| !old_blocks.contains(&b.name.to_uppercase()))
+            .filter_map(|b| b.name.strip_prefix("*D").or_else(|| b.name.strip_prefix("*d")))
+            .filter_map(|n| n.parse::<u64>().ok())
+            .max()
+            .unwrap_or(0)
+            + 1;
+        let mut records = Vec::new();
+        let mut blocks = Vec::new();
+        for shape in &dims {
+            let Shape::Dimension(d) = shape else { continue };
+            let name = format!("*D{next_d}");
+            next_d += 1;
+            let record = if modern {
+                let t = record_table.ok_or_else(|| WriteError::Structure("it has no BLOCK_RECORD table".into()))?;
+                let h = pen.block_record(t.handle, &name);
+                records.extend(pen.enc.take());
+                h
+            } else {
+                None
+            };
+            pen.block(&name, record, &d.geometry);
+            blocks.extend(pen.enc.take());
+            block_names.push(name);
+        }
+        summary.blocks = block_names.len();
+        if modern && let Some(t) = record_table {
+            push(t.end..t.end, records);
+            if let Some((count, span)) = &t.count {
+                let n = count - removed_records + block_names.len() as i64;
+                push(span.clone(), pen.enc.value_int(70, n));
+            }
+        }
+        match (file.blocks_end, file.entities_start) {
+            (Some(end), _) => push(end..end, blocks),
+            (None, Some(start)) => {
+                // A drawing with no BLOCKS section gets one, before ENTITIES.
+                let mut e = Encoder::for_file(file);
+                e.text(0, "SECTION").text(2, "BLOCKS");
+                let mut section = e.take();
+                section.extend(blocks);
+                e.text(0, "ENDSEC");
+                section.extend(e.take());
+                push(start..start, section);
+            }
+            (None, None) => return Err(WriteError::Structure("it has no ENTITIES section".into())),
+        }
+    } else if let Some(t) = record_table
+        && removed_records > 0
+        && let Some((count, span)) = &t.count
+    {
+        push(span.clone(), pen.enc.value_int(70, count - removed_records));
+    }
+
+    // Entities.
+    let mut dim_index = 0;
+    for item in &additions.items {
+        let block = if matches!(item.shape, Shape::Dimension(_)) {
+            dim_index += 1;
+            block_names.get(dim_index - 1).map(String::as_str)
+        } else {
+            None
+        };
+        pen.shape(&item.shape, model_space, layers.get(item.role), item.colour, block);
+        summary.added += 1;
+    }
+    let entities_end = file.entities_end.ok_or_else(|| WriteError::Structure("it has no ENTITIES section".into()))?;
+    push(entities_end..entities_end, pen.enc.take());
+
+    // $HANDSEED last, once every handle is taken.
+    if let (Some(seed), Some(var)) = (handles.seed(), seed_var)
+        && let Some((_, span)) = var.values.first()
+    {
+        let enc = Encoder::for_file(file);
+        push(span.clone(), enc.value_text(&format!("{seed:X}")));
+    }
+
+    splice(file.bytes, edits, out)?;
+    Ok(summary)
+}
+
+/// Copies `bytes` to `out` with the edits applied.
+fn splice(bytes: &[u8], mut edits: Vec<Edit>, out: &mut dyn Write) -> std::io::Result<()> {
+    edits.sort_by_key(|e| (e.range.start, e.range.end > e.range.start, e.order));
+    let mut at = 0;
+    for e in edits {
+        if e.range.start < at {
+            // Inside a run already removed (a sub-entity of a removed entity).
+            continue;
+        }
+        out.write_all(&bytes[at..e.range.start])?;
+        out.write_all(&e.bytes)?;
+        at = e.range.end;
+    }
+    out.write_all(&bytes[at..])?;
+    Ok(())
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    #[test]
+    fn splice_applies_inserts_and_removals_in_order() {
+        let src = b"0123456789";
+        let edits = vec![
+            Edit { range: 5..5, bytes: b"b".to_vec(), order: 1 },
+            Edit { range: 2..5, bytes: Vec::new(), order: 0 },
+            Edit { range: 5..5, bytes: b"c".to_vec(), order: 2 },
+            Edit { range: 9..10, bytes: b"X".to_vec(), order: 3 },
+        ];
+        let mut out = Vec::new();
+        splice(src, edits, &mut out).unwrap();
+        assert_eq!(out, b"01bc5678X");
+    }
+
+    #[test]
+    fn layer_names_per_release() {
+        assert!(check_layer_name("HANGLINE-PROFILE", Release::R12).is_ok());
+        assert!(check_layer_name("Seil Süd", Release::R12).is_err());
+        assert!(check_layer_name("Seil Süd", Release::R2018).is_ok());
+        assert!(check_layer_name("a/b", Release::R2018).is_err());
+        assert!(check_layer_name("", Release::R2018).is_err());
+    }
+}
