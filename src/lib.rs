@@ -21,6 +21,7 @@
 pub mod dxf;
 pub mod layout;
 pub mod model;
+pub mod read;
 pub mod solve;
 pub mod units;
 pub mod write;

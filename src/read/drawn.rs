@@ -1,0 +1,332 @@
+//! What one entity draws, in world coordinates: the reader's view of an
+//! entity, free of group codes.
+
+use kurbo::{Arc, BezPath, Line, Point, Shape as _, Vec2};
+
+use crate::dxf::{EntityRef, File, Pair, ocs_to_wcs};
+use crate::model::Origin;
+
+/// One attribute of an INSERT.
+#[derive(Clone, Debug, PartialEq)]
+pub struct Attribute {
+    /// The attribute tag (group code 2).
+    pub tag: String,
+    /// Its value (group code 1), decoded.
+    pub value: String,
+}
+
+/// A text's content and where it shows.
+#[derive(Clone, Debug, PartialEq)]
+pub struct Label {
+    /// The stored string (formatting codes not yet stripped).
+    pub raw: String,
+    /// True for MTEXT (inline formatting codes), false for TEXT.
+    pub mtext: bool,
+    /// Estimated centre of the text as displayed.
+    pub centre: Point,
+}
+
+/// The geometry of an entity, as far as the reader cares.
+#[derive(Clone, Debug, PartialEq)]
+pub enum Drawn {
+    /// A POINT.
+    Point(Point),
+    /// A CIRCLE: its centre.
+    Circle(Point),
+    /// A block reference.
+    Insert {
+        /// Insertion point.
+        at: Point,
+        /// Rotation in degrees (world).
+        rotation: f64,
+        /// Attributes that follow it.
+        attributes: Vec<Attribute>,
+    },
+    /// A LINE.
+    Line(Line),
+    /// A LWPOLYLINE, POLYLINE or ARC, flattened into straight pieces.
+    Path(Vec<Point>),
+    /// A TEXT or MTEXT.
+    Text(Label),
+    /// Anything else: the entity type.
+    Other(String),
+}
+
+/// Average glyph width of a text font as a fraction of its height, for
+/// estimating where a text's centre lies (common practice, no source).
+const GLYPH_WIDTH: f64 = 0.6;
+
+/// Reads an entity (with its sub-entities) into [`Drawn`], with `tolerance`
+/// the largest chord error allowed when flattening arcs and bulges.
+pub fn drawn(file: &File<'_>, e: &EntityRef, tolerance: f64) -> Drawn {
+    let mut pairs = file.pairs_in(&e.span);
+    // Skip the entity's own 0 pair.
+    pairs.next();
+    let own: Vec<Pair<'_>> = pairs.by_ref().take_while(|p| p.code != 0).collect();
+    let g = Codes(&own);
+    let n = [g.f64(210).unwrap_or(0.0), g.f64(220).unwrap_or(0.0), g.f64(230).unwrap_or(1.0)];
+    let ocs = |code: i32| ocs_to_wcs(n, [g.f64(code).unwrap_or(0.0), g.f64(code + 10).unwrap_or(0.0), 0.0]);
+    let wcs = |code: i32| Point::new(g.f64(code).unwrap_or(0.0), g.f64(code + 10).unwrap_or(0.0));
+    match e.kind.as_str() {
+        "POINT" => Drawn::Point(wcs(10)),
+        "CIRCLE" => Drawn::Circle(ocs(10)),
+        "LINE" => Drawn::Line(Line::new(wcs(10), wcs(11))),
+        "INSERT" => {
+            let at = ocs(10);
+            let mut rotation = g.f64(50).unwrap_or(0.0);
+            if n[2] < 0.0 {
+                // Mirrored extrusion: the block's x axis points the other way.
+                rotation = 180.0 - rotation;
+            }
+            Drawn::Insert { at, rotation, attributes: attributes(file, e) }
+        }
+        "TEXT" => {
+            let raw = file.text(g.raw(1).unwrap_or_default()).into_owned();
+            let h = g.f64(40).unwrap_or(1.0).abs();
+            let rot = g.f64(50).unwrap_or(0.0).to_radians();
+            let width = GLYPH_WIDTH * h * g.f64(41).unwrap_or(1.0).abs() * raw.chars().count() as f64;
+            let (h_align, v_align) = (g.i64(72).unwrap_or(0), g.i64(73).unwrap_or(0));
+            let centre = if h_align == 0 && v_align == 0 {
+                ocs(10) + rotate(Vec2::new(width / 2.0, h / 2.0), rot)
+            } else if h_align == 3 || h_align == 5 {
+                // Aligned or fit: the text runs between the two points.
+                ocs(10).midpoint(ocs(11)) + rotate(Vec2::new(0.0, h / 2.0), rot)
+            } else {
+                let dx = match h_align {
+                    0 => width / 2.0,
+                    2 => -width / 2.0,
+                    _ => 0.0,
+                };
+                let dy = match (h_align, v_align) {
+                    (4, _) | (_, 2) => 0.0,
+                    (_, 3) => -h / 2.0,
+                    _ => h / 2.0,
+                };
+                ocs(11) + rotate(Vec2::new(dx, dy), rot)
+            };
+            Drawn::Text(Label { raw, mtext: false, centre })
+        }
+        "MTEXT" => {
+            // The text may continue in group 3 chunks before group 1.
+            let mut raw = String::new();
+            for p in own.iter().filter(|p| p.code == 3) {
+                raw.push_str(&file.text(p.raw));
+            }
+            raw.push_str(&file.text(g.raw(1).unwrap_or_default()));
+            let h = g.f64(40).unwrap_or(1.0).abs();
+            let dir = match (g.f64(11), g.f64(21)) {
+                (Some(x), Some(y)) if x != 0.0 || y != 0.0 => y.atan2(x),
+                _ => g.f64(50).unwrap_or(0.0).to_radians(),
+            };
+            let plain = crate::read::mtext::plain_mtext(&raw);
+            let lines = plain.lines().count().max(1) as f64;
+            let longest = plain.lines().map(|l| l.chars().count()).max().unwrap_or(0) as f64;
+            let width = GLYPH_WIDTH * h * longest;
+            let height = h * (1.0 + 1.6 * (lines - 1.0));
+            let attach = g.i64(71).unwrap_or(1).clamp(1, 9) - 1;
+            let dx = match attach % 3 {
+                0 => width / 2.0,
+                1 => 0.0,
+                _ => -width / 2.0,
+            };
+            let dy = match attach / 3 {
+                0 => -height / 2.0,
+                1 => 0.0,
+                _ => height / 2.0,
+            };
+            Drawn::Text(Label { raw, mtext: true, centre: wcs(10) + rotate(Vec2::new(dx, dy), dir) })
+        }
+        "LWPOLYLINE" => {
+            let mut verts: Vec<(Point, f64)> = Vec::new();
+            let elevation = g.f64(38).unwrap_or(0.0);
+            let mut x = None;
+            for p in &own {
+                match p.code {
+                    10 => x = p.f64(),
+                    20 => {
+                        if let Some(x) = x.take() {
+                            let y = p.f64().unwrap_or(f64::NAN);
+                            verts.push((ocs_to_wcs(n, [x, y, elevation]), 0.0));
+                        }
+                    }
+                    42 => {
+                        if let Some(last) = verts.last_mut() {
+                            last.1 = p.f64().unwrap_or(0.0);
+                        }
+                    }
+                    _ => {}
+                }
+            }
+            let closed = g.i64(70).unwrap_or(0) & 1 == 1;
+            // A mirrored OCS turns counter-clockwise arcs clockwise.
+            let flip = if n[2] < 0.0 { -1.0 } else { 1.0 };
+            Drawn::Path(flatten_bulges(&verts, closed, flip, tolerance))
+        }
+        "POLYLINE" => {
+            let flags = g.i64(70).unwrap_or(0);
+            let mut verts: Vec<(Point, f64)> = Vec::new();
+            let mut sub = file.pairs_in(&e.span).peekable();
+            while let Some(p) = sub.next() {
+                if p.code == 0 && p.is("VERTEX") {
+                    let mut v = Vec::new();
+                    while let Some(q) = sub.next_if(|q| q.code != 0) {
+                        v.push(q);
+                    }
+                    let vc = Codes(&v);
+                    // Skip spline frame control points (flag 16).
+                    if vc.i64(70).unwrap_or(0) & 16 != 0 {
+                        continue;
+                    }
+                    let pt = [vc.f64(10).unwrap_or(0.0), vc.f64(20).unwrap_or(0.0), vc.f64(30).unwrap_or(0.0)];
+                    let pt = if flags & (8 | 16 | 64) != 0 { Point::new(pt[0], pt[1]) } else { ocs_to_wcs(n, pt) };
+                    verts.push((pt, vc.f64(42).unwrap_or(0.0)));
+                }
+            }
+            let flip = if n[2] < 0.0 { -1.0 } else { 1.0 };
+            Drawn::Path(flatten_bulges(&verts, flags & 1 == 1, flip, tolerance))
+        }
+        "ARC" => {
+            let c = [g.f64(10).unwrap_or(0.0), g.f64(20).unwrap_or(0.0)];
+            let r = g.f64(40).unwrap_or(0.0).abs();
+            let a0 = g.f64(50).unwrap_or(0.0).to_radians();
+            let mut a1 = g.f64(51).unwrap_or(0.0).to_radians();
+            if a1 <= a0 {
+                a1 += std::f64::consts::TAU;
+            }
+            let arc = Arc::new((c[0], c[1]), (r, r), a0, a1 - a0, 0.0);
+            let pts: Vec<Point> = flatten(&arc.into_path(tolerance), tolerance)
+                .into_iter()
+                .map(|p| ocs_to_wcs(n, [p.x, p.y, 0.0]))
+                .collect();
+            Drawn::Path(pts)
+        }
+        other => Drawn::Other(other.to_string()),
+    }
+}
+
+fn attributes(file: &File<'_>, e: &EntityRef) -> Vec<Attribute> {
+    let mut out = Vec::new();
+    let mut pairs = file.pairs_in(&e.span).peekable();
+    pairs.next();
+    while let Some(p) = pairs.next() {
+        if p.code == 0 && p.is("ATTRIB") {
+            let mut tag = String::new();
+            let mut value = String::new();
+            while let Some(q) = pairs.next_if(|q| q.code != 0) {
+                match q.code {
+                    2 => tag = file.text(q.raw).trim().to_string(),
+                    1 => value = file.text(q.raw).into_owned(),
+                    _ => {}
+                }
+            }
+            out.push(Attribute { tag, value });
+        }
+    }
+    out
+}
+
+fn rotate(v: Vec2, angle: f64) -> Vec2 {
+    let (s, c) = angle.sin_cos();
+    Vec2::new(v.x * c - v.y * s, v.x * s + v.y * c)
+}
+
+/// Straight pieces of a polyline with bulges (bulge = tan(θ/4) of the arc's
+/// included angle θ, negative clockwise — DXF reference, LWPOLYLINE 42).
+fn flatten_bulges(verts: &[(Point, f64)], closed: bool, flip: f64, tolerance: f64) -> Vec<Point> {
+    let mut out = Vec::new();
+    let count = if closed { verts.len() } else { verts.len().saturating_sub(1) };
+    if let Some(first) = verts.first() {
+        out.push(first.0);
+    }
+    for i in 0..count {
+        let (a, bulge) = verts[i];
+        let b = verts[(i + 1) % verts.len()].0;
+        let bulge = bulge * flip;
+        if bulge == 0.0 || !bulge.is_finite() || a == b {
+            out.push(b);
+            continue;
+        }
+        let theta = 4.0 * bulge.atan();
+        let chord = b - a;
+        let d = chord.hypot();
+        let r = d / (2.0 * (theta / 2.0).sin());
+        // Centre: from the chord's midpoint along its left normal.
+        let m = a.midpoint(b);
+        let normal = Vec2::new(-chord.y, chord.x) / d;
+        let h = r * (theta / 2.0).cos();
+        let c = m + normal * h;
+        let start = (a - c).atan2();
+        let arc = Arc::new(c, (r.abs(), r.abs()), start, theta, 0.0);
+        let pts = flatten(&arc.into_path(tolerance), tolerance);
+        out.extend(pts.into_iter().skip(1));
+        // Land exactly on the vertex.
+        if let Some(last) = out.last_mut() {
+            *last = b;
+        }
+    }
+    out
+}
+
+/// The points of a path flattened to straight pieces within `tolerance`.
+fn flatten(path: &BezPath, tolerance: f64) -> Vec<Point> {
+    let mut pts = Vec::new();
+    kurbo::flatten(path, tolerance, |el| match el {
+        kurbo::PathEl::MoveTo(p) | kurbo::PathEl::LineTo(p) => pts.push(p),
+        _ => {}
+    });
+    pts
+}
+
+/// Looks up group codes among an entity's own pairs.
+struct Codes<'p, 'a>(&'p [Pair<'a>]);
+
+impl<'a> Codes<'_, 'a> {
+    fn find(&self, code: i32) -> Option<&Pair<'a>> {
+        // XDATA (1000+) never shadows an entity's own codes: it comes last.
+        self.0.iter().take_while(|p| p.code < 1000).find(|p| p.code == code)
+    }
+
+    fn f64(&self, code: i32) -> Option<f64> {
+        self.find(code)?.f64()
+    }
+
+    fn i64(&self, code: i32) -> Option<i64> {
+        self.find(code)?.i64()
+    }
+
+    fn raw(&self, code: i32) -> Option<&'a [u8]> {
+        self.find(code).map(|p| p.raw)
+    }
+}
+
+/// A representative position of a drawn item, for messages.
+#[must_use]
+pub fn position(d: &Drawn) -> Point {
+    match d {
+        Drawn::Point(p) | Drawn::Circle(p) => *p,
+        Drawn::Insert { at, .. } => *at,
+        Drawn::Line(l) => l.p0.midpoint(l.p1),
+        Drawn::Path(p) => p.first().copied().unwrap_or(Point::ORIGIN),
+        Drawn::Text(t) => t.centre,
+        Drawn::Other(_) => Point::ORIGIN,
+    }
+}
+
+/// The origin record of an entity, for messages.
+#[must_use]
+pub fn origin(e: &EntityRef, at: Point) -> Origin {
+    Origin { layer: e.layer.clone(), handle: e.handle.clone(), at }
+}
+
+/// Every coordinate of a drawn item, to check that they are finite.
+#[must_use]
+pub fn coordinates(d: &Drawn) -> Vec<Point> {
+    match d {
+        Drawn::Point(p) | Drawn::Circle(p) => vec![*p],
+        Drawn::Insert { at, .. } => vec![*at],
+        Drawn::Line(l) => vec![l.p0, l.p1],
+        Drawn::Path(p) => p.clone(),
+        Drawn::Text(t) => vec![t.centre],
+        Drawn::Other(_) => Vec::new(),
+    }
+}

@@ -1,0 +1,542 @@
+//! The reader: a scanned DXF drawing in, the plain [`Structure`] out.
+//!
+//! By layer (names are defaults; each can be renamed):
+//! * `SUPPORTS`: a POINT, CIRCLE (its centre) or INSERT (its insertion
+//!   point) is a fixed support; a vertical LINE is a tower axis.
+//! * `LOADS`: a LINE is a load's line of action, acting toward its lower end
+//!   (a vertical line: straight down); its magnitude is the nearest TEXT or
+//!   MTEXT ([`assign`], [`label`]), or its length times `--load-scale`. An
+//!   INSERT is a load acting through its insertion point along the block's
+//!   −y axis (rotation 0: straight down), its magnitude in an attribute or,
+//!   failing that, in the nearest text.
+//! * `DECK` (optional): LINE, ARC, LWPOLYLINE or POLYLINE of the deck.
+//!
+//! Only model-space entities count. Entities of other types on these layers
+//! are passed over and counted in a warning. [`mtext`] strips formatting
+//! codes; [`drawn`] turns an entity's pairs into world geometry.
+
+pub mod assign;
+mod drawn;
+pub mod label;
+pub mod mtext;
+
+use kurbo::{Line, Point, Rect, Vec2};
+use thiserror::Error;
+
+use crate::dxf::{File, Format, Release, ScanOptions, names_match};
+use crate::model::{Deck, LIMIT, Load, ModelError, Origin, Structure, Support, fmt_num, fmt_xy};
+use crate::units::{ForceUnit, LengthUnit, Units};
+use assign::{AssignError, AssignTolerances, LabelText, LoadGeom, LoadShape};
+use drawn::{Drawn, drawn};
+use label::{LabelForce, parse_force};
+
+/// The layers the reader takes its input from.
+#[derive(Clone, Debug, PartialEq)]
+pub struct InputLayers {
+    /// Supports and tower axes.
+    pub supports: String,
+    /// Load lines, load blocks and labels.
+    pub loads: String,
+    /// The deck.
+    pub deck: String,
+    /// True when the deck layer was named by the user (then it must exist).
+    pub deck_required: bool,
+}
+
+impl Default for InputLayers {
+    fn default() -> Self {
+        InputLayers { supports: "SUPPORTS".into(), loads: "LOADS".into(), deck: "DECK".into(), deck_required: false }
+    }
+}
+
+/// How to read the drawing.
+#[derive(Clone, Debug, PartialEq)]
+pub struct ReadOptions {
+    /// Input layers.
+    pub layers: InputLayers,
+    /// The drawing's length unit, overriding `$INSUNITS`.
+    pub length_unit: Option<LengthUnit>,
+    /// The force unit of the model and the report; by default the labels'
+    /// unit when they all agree, else kN.
+    pub force_unit: Option<ForceUnit>,
+    /// The unit of labels written without one.
+    pub label_unit: ForceUnit,
+    /// Force per drawing unit of load-line length: magnitudes from lengths.
+    pub load_scale: Option<(f64, ForceUnit)>,
+}
+
+impl Default for ReadOptions {
+    fn default() -> Self {
+        ReadOptions {
+            layers: InputLayers::default(),
+            length_unit: None,
+            force_unit: None,
+            label_unit: ForceUnit::Kilonewton,
+            load_scale: None,
+        }
+    }
+}
+
+/// A load as read, for `inspect` and the report.
+#[derive(Clone, Debug, PartialEq)]
+pub struct LoadRead {
+    /// The load line or block.
+    pub origin: Origin,
+    /// The label's text as shown (plain), when a label gave the magnitude.
+    pub label: Option<String>,
+    /// Where the label is (its handle and centre).
+    pub label_origin: Option<Origin>,
+    /// The magnitude as written.
+    pub value: f64,
+    /// The unit as written (or assumed).
+    pub unit: ForceUnit,
+    /// The force in the model's units.
+    pub force: Vec2,
+    /// A point on the line of action.
+    pub anchor: Point,
+}
+
+/// Everything read from a drawing.
+#[derive(Clone, Debug)]
+pub struct Reading {
+    /// The structure.
+    pub structure: Structure,
+    /// The loads as read, left to right (same order as the structure's).
+    pub loads: Vec<LoadRead>,
+    /// The drawing's model-space extents (without the tool's own layers).
+    pub extents: Option<Rect>,
+    /// The drawing's release.
+    pub release: Release,
+    /// True for binary DXF.
+    pub binary: bool,
+    /// How the length unit was decided.
+    pub length_source: String,
+    /// How the force unit was decided.
+    pub force_source: String,
+    /// The drawing's layers, from its LAYER table.
+    pub layers: Vec<String>,
+    /// Things the user should know.
+    pub warnings: Vec<String>,
+}
+
+/// Why a drawing could not be read.
+#[derive(Debug, Error, PartialEq)]
+pub enum ReadError {
+    /// A required layer is not in the drawing.
+    #[error(
+        "the drawing has no layer named {layer} for the {role} (its layers: {present}); put them on {layer} or name their layer with --layer {key}=NAME"
+    )]
+    MissingLayer {
+        /// What the layer holds.
+        role: &'static str,
+        /// The command-line key.
+        key: &'static str,
+        /// The layer name looked for.
+        layer: String,
+        /// The layers the drawing has.
+        present: String,
+    },
+    /// `$INSUNITS` names a unit this tool does not use.
+    #[error(
+        "the drawing's unit ($INSUNITS = {code}) is not one this tool uses; give the unit with --units (mm, cm, m, in, ft, …)"
+    )]
+    Units {
+        /// The code found.
+        code: i64,
+    },
+    /// A load line or block without a usable label.
+    #[error("{0}")]
+    Label(String),
+    /// An entity whose geometry cannot be used.
+    #[error("{origin}: {problem}")]
+    Geometry {
+        /// The entity, as a message.
+        origin: String,
+        /// What is wrong and what to do.
+        problem: String,
+    },
+    /// The structure read is not a valid model.
+    #[error(transparent)]
+    Model(#[from] ModelError),
+}
+
+/// The scan options the reader needs, plus `extra` layers (the tool's
+/// output layers, which the writer must see and the extents must skip).
+#[must_use]
+pub fn scan_options<'a>(layers: &InputLayers, extra: impl Iterator<Item = &'a str>) -> ScanOptions {
+    let extra: Vec<String> = extra.map(String::from).collect();
+    let mut keep = vec![layers.supports.clone(), layers.loads.clone(), layers.deck.clone()];
+    keep.extend(extra.iter().cloned());
+    ScanOptions { keep_layers: keep, skip_extents_layers: extra }
+}
+
+/// Tolerance for "vertical": |dx| at most this fraction of a line's length
+/// counts as exactly vertical (drafting noise of snapped lines; our choice).
+const VERTICAL: f64 = 1e-9;
+
+/// Reads the structure from a scanned drawing.
+pub fn read(file: &File<'_>, options: &ReadOptions) -> Result<Reading, ReadError> {
+    let layers = &options.layers;
+    let mut warnings: Vec<String> = file.warnings.clone();
+    let table_layers: Vec<String> =
+        file.table("LAYER").map(|t| t.records.iter().map(|r| r.name.clone()).collect()).unwrap_or_default();
+    let on = |name: &str| -> Vec<&crate::dxf::EntityRef> {
+        file.entities.iter().filter(|e| names_match(&e.layer, name)).collect()
+    };
+    let exists = |name: &str| table_layers.iter().any(|l| names_match(l, name)) || !on(name).is_empty();
+    let present = || {
+        let mut l = table_layers.clone();
+        l.truncate(20);
+        if l.is_empty() { "none".to_string() } else { l.join(", ") }
+    };
+    for (role, key, layer) in [("supports", "supports", &layers.supports), ("loads", "loads", &layers.loads)] {
+        if !exists(layer) {
+            return Err(ReadError::MissingLayer { role, key, layer: layer.clone(), present: present() });
+        }
+    }
+    if layers.deck_required && !exists(&layers.deck) {
+        return Err(ReadError::MissingLayer {
+            role: "deck",
+            key: "deck",
+            layer: layers.deck.clone(),
+            present: present(),
+        });
+    }
+    if file.paper_space_kept > 0 {
+        warnings.push(format!(
+            "{} entities on the input layers are in paper space and were ignored; draw supports and loads in model space",
+            file.paper_space_kept
+        ));
+    }
+
+    // Units.
+    let (length, length_source) = match options.length_unit {
+        Some(u) => (u, "given with --units".to_string()),
+        None => match file.header_i64("$INSUNITS") {
+            Some(code) if code != 0 => {
+                let u = LengthUnit::from_insunits(code).ok_or(ReadError::Units { code })?;
+                (u, format!("from $INSUNITS = {code}"))
+            }
+            found => {
+                let why = if found.is_some() { "$INSUNITS is 0 (unitless)" } else { "the drawing has no $INSUNITS" };
+                warnings.push(format!("{why}; lengths read as metres: give --units if they are not"));
+                (LengthUnit::Metre, format!("assumed ({why})"))
+            }
+        },
+    };
+
+    let extents = file.extents.rect();
+    let tolerance = extents.map_or(1e-3, |r| (r.width().hypot(r.height()) * 1e-5).max(1e-9));
+
+    // Supports.
+    let mut supports = Vec::new();
+    let mut ignored = Ignored::default();
+    for e in on(&layers.supports) {
+        let d = drawn(file, e, tolerance);
+        let o = drawn::origin(e, drawn::position(&d));
+        check_finite(&d, &o)?;
+        match d {
+            Drawn::Point(p) | Drawn::Circle(p) | Drawn::Insert { at: p, .. } => {
+                supports.push(Support::Point { at: p, origin: o })
+            }
+            Drawn::Line(l) if is_vertical(l) => supports.push(Support::Axis {
+                x: (l.p0.x + l.p1.x) / 2.0,
+                foot: l.p0.y.min(l.p1.y),
+                top: l.p0.y.max(l.p1.y),
+                origin: o,
+            }),
+            Drawn::Line(_) => warnings.push(format!(
+                "{o}: a LINE on {} that is not vertical was ignored (a tower axis must be vertical)",
+                layers.supports
+            )),
+            other => ignored.add(&other),
+        }
+    }
+    ignored.warn(&layers.supports, &mut warnings);
+
+    // Loads: lines and blocks, and the texts that label them.
+    let mut items: Vec<LoadItem> = Vec::new();
+    let mut texts: Vec<(LabelText, Origin)> = Vec::new();
+    let mut ignored = Ignored::default();
+    for e in on(&layers.loads) {
+        let d = drawn(file, e, tolerance);
+        let o = drawn::origin(e, drawn::position(&d));
+        check_finite(&d, &o)?;
+        match d {
+            Drawn::Line(l) => {
+                if l.p0 == l.p1 {
+                    return Err(ReadError::Geometry {
+                        origin: o.to_string(),
+                        problem: "this load line has no length; draw it along the load's line of action".into(),
+                    });
+                }
+                items.push(LoadItem {
+                    shape: LoadShape::Segment(l),
+                    direction: line_direction(l),
+                    origin: o,
+                    given: None,
+                });
+            }
+            Drawn::Insert { at, rotation, attributes } => {
+                let given = attribute_force(&attributes, &o)?;
+                let (sin, cos) = rotation.to_radians().sin_cos();
+                let dir = Vec2::new(sin, -cos);
+                let dir = if dir.x.abs() <= VERTICAL { Vec2::new(0.0, -1.0) } else { dir };
+                items.push(LoadItem { shape: LoadShape::Point(at), direction: dir, origin: o, given });
+            }
+            Drawn::Text(t) => {
+                let plain = if t.mtext { mtext::plain_mtext(&t.raw) } else { mtext::plain_text(&t.raw) };
+                let plain = plain.split_whitespace().collect::<Vec<_>>().join(" ");
+                let id = texts.len();
+                let o = Origin { at: t.centre, ..o };
+                texts.push((LabelText::new(id, t.centre, plain), o));
+            }
+            other => ignored.add(&other),
+        }
+    }
+    ignored.warn(&layers.loads, &mut warnings);
+
+    // Magnitudes: attributes first, then --load-scale or the labels.
+    let mut magnitudes: Vec<Option<(LabelForce, Option<usize>)>> =
+        items.iter().map(|i| i.given.map(|g| (g, None))).collect();
+    let mut leftover_texts: Vec<usize> = Vec::new();
+    if let Some((scale, unit)) = options.load_scale {
+        for (m, item) in magnitudes.iter_mut().zip(&items) {
+            if m.is_none()
+                && let LoadShape::Segment(l) = item.shape
+            {
+                *m = Some((LabelForce { value: l.length() * scale, unit: Some(unit) }, None));
+            }
+        }
+        leftover_texts.extend(0..texts.len());
+    }
+    let need: Vec<usize> = (0..items.len()).filter(|&i| magnitudes[i].is_none()).collect();
+    if need.is_empty() {
+        if options.load_scale.is_none() {
+            leftover_texts.extend(0..texts.len());
+        }
+    } else {
+        let geoms: Vec<LoadGeom> = need.iter().map(|&i| LoadGeom { id: i, shape: items[i].shape }).collect();
+        let labels: Vec<LabelText> = texts.iter().map(|(t, _)| t.clone()).collect();
+        let assignment = assign::assign(&geoms, &labels, AssignTolerances::default())
+            .map_err(|e| ReadError::Label(label_message(&e, &items, &texts, &layers.loads)))?;
+        for m in &assignment.matches {
+            magnitudes[m.line] = Some((m.force, Some(m.label)));
+        }
+        leftover_texts.extend(assignment.leftovers.iter().map(|l| l.label));
+    }
+    for &t in &leftover_texts {
+        let (text, o) = &texts[t];
+        warnings.push(format!("text '{}' ({o}) is not the label of any load and was ignored", text.text));
+    }
+
+    // The force unit: what the labels agree on, else kN.
+    let written: Vec<ForceUnit> =
+        magnitudes.iter().flatten().map(|(f, _)| f.unit.unwrap_or(options.label_unit)).collect();
+    let (force_unit, force_source) = match options.force_unit {
+        Some(u) => (u, "given with --force-unit".to_string()),
+        None => match written.first() {
+            Some(&first) if written.iter().all(|&u| u == first) => (first, "the unit of every label".to_string()),
+            Some(_) => (ForceUnit::Kilonewton, "kN, as the labels use several units".to_string()),
+            None => (ForceUnit::Kilonewton, "kN (default)".to_string()),
+        },
+    };
+    if magnitudes.iter().flatten().any(|(f, _)| f.unit.is_none()) {
+        warnings.push(format!(
+            "some labels have no unit; they were read as {}: give --label-unit if not",
+            options.label_unit
+        ));
+    }
+
+    let mut loads = Vec::new();
+    let mut reads = Vec::new();
+    for (item, m) in items.iter().zip(&magnitudes) {
+        // Every item got a magnitude or the assignment returned an error.
+        let Some((f, label)) = m else { continue };
+        let value = f.value_in(force_unit, options.label_unit);
+        let force = item.direction * value;
+        let anchor = match item.shape {
+            LoadShape::Segment(l) => l.p0.midpoint(l.p1),
+            LoadShape::Point(p) => p,
+        };
+        let anchor = if force.x == 0.0 {
+            // An exactly vertical load: one x for the whole line.
+            if let LoadShape::Segment(l) = item.shape { Point::new((l.p0.x + l.p1.x) / 2.0, anchor.y) } else { anchor }
+        } else {
+            anchor
+        };
+        loads.push(Load { anchor, force, origin: item.origin.clone() });
+        reads.push(LoadRead {
+            origin: item.origin.clone(),
+            label: label.map(|l| texts[l].0.text.clone()),
+            label_origin: label.map(|l| texts[l].1.clone()),
+            value: f.value,
+            unit: f.unit.unwrap_or(options.label_unit),
+            force,
+            anchor,
+        });
+    }
+
+    // Deck.
+    let mut deck = Deck::default();
+    let mut ignored = Ignored::default();
+    for e in on(&layers.deck) {
+        let d = drawn(file, e, tolerance);
+        let o = drawn::origin(e, drawn::position(&d));
+        check_finite(&d, &o)?;
+        match d {
+            Drawn::Line(l) => deck.segments.push(l),
+            Drawn::Path(p) => deck.segments.extend(p.windows(2).map(|w| Line::new(w[0], w[1]))),
+            other => ignored.add(&other),
+        }
+    }
+    ignored.warn(&layers.deck, &mut warnings);
+    let deck = (!deck.segments.is_empty()).then_some(deck);
+
+    let units = Units { length, force: force_unit };
+    let structure = Structure::new(units, supports, loads, deck, &layers.supports, &layers.loads)?;
+    reads.sort_by(|a, b| a.anchor.x.total_cmp(&b.anchor.x));
+    Ok(Reading {
+        structure,
+        loads: reads,
+        extents,
+        release: file.release,
+        binary: file.format != Format::Ascii,
+        length_source,
+        force_source,
+        layers: table_layers,
+        warnings,
+    })
+}
+
+/// A load line or block before its magnitude is known.
+struct LoadItem {
+    shape: LoadShape,
+    /// Unit vector the load acts along.
+    direction: Vec2,
+    origin: Origin,
+    /// A magnitude given by a block attribute.
+    given: Option<LabelForce>,
+}
+
+fn is_vertical(l: Line) -> bool {
+    let d = l.p1 - l.p0;
+    d.y != 0.0 && d.x.abs() <= VERTICAL * d.hypot()
+}
+
+/// The unit vector a load line acts along: toward its lower end; a vertical
+/// line straight down.
+fn line_direction(l: Line) -> Vec2 {
+    if is_vertical(l) {
+        return Vec2::new(0.0, -1.0);
+    }
+    let (upper, lower) = if l.p0.y >= l.p1.y { (l.p0, l.p1) } else { (l.p1, l.p0) };
+    let d = lower - upper;
+    d / d.hypot()
+}
+
+/// Attribute tags that name a load's magnitude when several attributes read
+/// as forces (our convention).
+const LOAD_TAGS: [&str; 6] = ["LOAD", "FORCE", "P", "F", "W", "MAGNITUDE"];
+
+fn attribute_force(attributes: &[drawn::Attribute], o: &Origin) -> Result<Option<LabelForce>, ReadError> {
+    let found: Vec<(&drawn::Attribute, LabelForce)> = attributes
+        .iter()
+        .filter_map(|a| parse_force(mtext::plain_text(&a.value).trim()).ok().map(|f| (a, f)))
+        .collect();
+    match found.as_slice() {
+        [] => Ok(None),
+        [(_, f)] => Ok(Some(*f)),
+        many => {
+            let tagged: Vec<_> =
+                many.iter().filter(|(a, _)| LOAD_TAGS.iter().any(|t| a.tag.eq_ignore_ascii_case(t))).collect();
+            match tagged.as_slice() {
+                [(_, f)] => Ok(Some(*f)),
+                _ => Err(ReadError::Label(format!(
+                    "the load block {o} has {} attributes that read as forces ({}); keep one, or tag the magnitude LOAD",
+                    many.len(),
+                    many.iter().map(|(a, _)| format!("{}={}", a.tag, a.value)).collect::<Vec<_>>().join(", ")
+                ))),
+            }
+        }
+    }
+}
+
+fn label_message(e: &AssignError, items: &[LoadItem], texts: &[(LabelText, Origin)], layer: &str) -> String {
+    let line =
+        |id: usize| items.get(id).map_or_else(|| format!("load {id}"), |i| format!("the load line {}", i.origin));
+    let text = |id: usize| texts.get(id).map_or_else(|| format!("text {id}"), |(t, o)| format!("'{}' ({o})", t.text));
+    match e {
+        AssignError::Missing { line: l } => format!(
+            "{} has no label; put a text such as '85 kN' beside it on layer {layer} (or give --load-scale to read magnitudes from line lengths)",
+            line(*l)
+        ),
+        AssignError::Ambiguous { line: l, label, other_line, distance, other_distance } => format!(
+            "the label {} is about as near to {} ({}) as to {} ({}); move it closer to the line it belongs to",
+            text(*label),
+            line(*l),
+            fmt_num(*distance),
+            line(*other_line),
+            fmt_num(*other_distance)
+        ),
+        AssignError::TwoLabels { line: l, label, other_label, .. } => format!(
+            "{} has two labels about as near: {} and {}; keep one beside the line",
+            line(*l),
+            text(*label),
+            text(*other_label)
+        ),
+        AssignError::Unparsable { line: l, label, error } => {
+            format!("the label {} of {} does not read as a load: {error}", text(*label), line(*l))
+        }
+    }
+}
+
+fn check_finite(d: &Drawn, o: &Origin) -> Result<(), ReadError> {
+    for p in drawn::coordinates(d) {
+        for v in [p.x, p.y] {
+            if !v.is_finite() || v.abs() >= LIMIT {
+                return Err(ReadError::Geometry {
+                    origin: format!("entity {} on layer {}", o.handle.as_deref().unwrap_or("without handle"), o.layer),
+                    problem: format!(
+                        "a coordinate is {v} (near {}); coordinates must be finite and below 1e12: fix or redraw the entity",
+                        fmt_xy(Point::new(clean(p.x), clean(p.y)))
+                    ),
+                });
+            }
+        }
+    }
+    Ok(())
+}
+
+fn clean(v: f64) -> f64 {
+    if v.is_finite() { v } else { 0.0 }
+}
+
+/// Entity types passed over on a layer, counted for one warning.
+#[derive(Default)]
+struct Ignored(Vec<(String, usize)>);
+
+impl Ignored {
+    fn add(&mut self, d: &Drawn) {
+        let kind = match d {
+            Drawn::Other(k) => k.clone(),
+            Drawn::Text(_) => "TEXT".into(),
+            Drawn::Path(_) => "POLYLINE".into(),
+            Drawn::Point(_) => "POINT".into(),
+            Drawn::Circle(_) => "CIRCLE".into(),
+            Drawn::Insert { .. } => "INSERT".into(),
+            Drawn::Line(_) => "LINE".into(),
+        };
+        match self.0.iter_mut().find(|(k, _)| *k == kind) {
+            Some((_, n)) => *n += 1,
+            None => self.0.push((kind, 1)),
+        }
+    }
+
+    fn warn(self, layer: &str, warnings: &mut Vec<String>) {
+        if !self.0.is_empty() {
+            let list: Vec<String> = self.0.iter().map(|(k, n)| format!("{n} {k}")).collect();
+            warnings.push(format!("on layer {layer}, {} passed over (not used on this layer)", list.join(", ")));
+        }
+    }
+}
