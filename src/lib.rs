@@ -19,9 +19,13 @@
 //! * [`report`] is the machine-readable summary.
 
 pub mod dxf;
+pub mod error;
 pub mod layout;
 pub mod model;
+pub mod pipeline;
 pub mod read;
+pub mod report;
 pub mod solve;
 pub mod units;
 pub mod write;
+pub use error::Error;

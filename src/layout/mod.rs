@@ -1,5 +1,81 @@
 //! Layout: what the tool draws back into the drawing, as plain shapes.
+//!
+//! Pure geometry, no DXF: the form diagram's additions ([`form`]: profile,
+//! hangers, force annotations, Bow's letters, dimensions) and the force
+//! diagram ([`diagram`]) placed beside the drawing. Sizes follow one text
+//! height proportioned to the span; the writer turns the result into DXF.
 
+mod diagram;
+mod dimension;
+mod form;
+pub mod nice;
 mod shapes;
 
+use kurbo::{Point, Rect};
+
+use crate::model::Structure;
+use crate::solve::Solution;
+pub use dimension::linear;
 pub use shapes::*;
+
+/// Choices the user can make about the layout.
+#[derive(Clone, Copy, Debug, Default, PartialEq)]
+pub struct LayoutOptions {
+    /// Force units per drawing unit in the force diagram; chosen to fit when `None`.
+    pub force_scale: Option<f64>,
+    /// Where the top of the load line (point a) goes; beside the drawing when `None`.
+    pub diagram_at: Option<Point>,
+    /// Text height in drawing units; proportioned to the span when `None`.
+    pub text_height: Option<f64>,
+}
+
+/// What the layout decided, for the report and the summary.
+#[derive(Clone, Copy, Debug, PartialEq)]
+pub struct Placement {
+    /// Force units per drawing unit in the force diagram.
+    pub force_scale: f64,
+    /// Where point a (the top of the load line) was drawn.
+    pub diagram_at: Point,
+    /// The text height used.
+    pub text_height: f64,
+}
+
+/// The text height proportioned to a span: a round number near 1/60 of it
+/// (about 2.5 mm on paper at the scale that fits the span on an A3 sheet;
+/// common drafting practice, no source).
+#[must_use]
+pub fn text_height_for(span: f64) -> f64 {
+    nice::round_down(span / 60.0)
+}
+
+/// Lays out everything the tool adds for `solution`, beside `extents` (the
+/// user's drawing, when known).
+#[must_use]
+pub fn layout(
+    structure: &Structure,
+    solution: &Solution,
+    extents: Option<Rect>,
+    options: &LayoutOptions,
+) -> (Additions, Placement) {
+    let th = options.text_height.unwrap_or_else(|| text_height_for(structure.span()));
+    let units = structure.units();
+    let dim_style = DimStyle {
+        text_height: 0.8 * th,
+        arrow: 0.8 * th,
+        ext_offset: 0.25 * th,
+        ext_extend: 0.4 * th,
+        gap: 0.2 * th,
+        decimals: nice::length_decimals(units.length) as i64,
+    };
+    let mut items = form::form_items(structure, solution, th, &dim_style);
+    let mut taken = extents;
+    for item in &items {
+        if let Some(b) = item.shape.bounds() {
+            taken = Some(taken.map_or(b, |t| t.union(b)));
+        }
+    }
+    let top = solution.nodes.iter().map(|p| p.y).fold(f64::NEG_INFINITY, f64::max);
+    let (diagram, placement) = diagram::diagram_items(structure, solution, taken, top, th, options);
+    items.extend(diagram);
+    (Additions { items, dim_style }, placement)
+}

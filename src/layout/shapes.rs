@@ -207,3 +207,28 @@ pub struct Additions {
     /// The dimension style.
     pub dim_style: DimStyle,
 }
+
+impl Shape {
+    /// An axis-aligned box around the shape (text estimated from its
+    /// height and length).
+    #[must_use]
+    pub fn bounds(&self) -> Option<kurbo::Rect> {
+        let pts: Vec<Point> = match self {
+            Shape::Line(l) => vec![l.p0, l.p1],
+            Shape::Polyline { points, .. } => points.clone(),
+            Shape::Circle { center, radius } => {
+                vec![*center - kurbo::Vec2::new(*radius, *radius), *center + kurbo::Vec2::new(*radius, *radius)]
+            }
+            Shape::Solid(p) => p.to_vec(),
+            Shape::Text(t) => {
+                let r = 0.6 * t.height * t.content.chars().count() as f64 + t.height;
+                vec![t.at - kurbo::Vec2::new(r, r), t.at + kurbo::Vec2::new(r, r)]
+            }
+            Shape::Dimension(d) => {
+                return d.geometry.iter().filter_map(Shape::bounds).reduce(|a, b| a.union(b));
+            }
+        };
+        let first = *pts.first()?;
+        Some(pts.iter().fold(kurbo::Rect::from_points(first, first), |r, p| r.union_pt(*p)))
+    }
+}

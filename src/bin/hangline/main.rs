@@ -1,3 +1,259 @@
-//! The `hangline` command line: a thin layer over the library.
+//! The `hangline` command line: a thin layer over the library. It owns the
+//! paths: reading the input, writing outputs to temporary files beside their
+//! destinations and renaming them into place only when everything worked.
 
-fn main() {}
+mod args;
+
+use std::io::{BufWriter, Write};
+use std::path::{Path, PathBuf};
+use std::process::ExitCode;
+
+use anyhow::{Context, Result, bail};
+use clap::Parser;
+
+use args::{Cli, Command, InspectArgs, SolveArgs};
+use hangline::layout::nice::{fmt_force, fmt_length, member_name};
+use hangline::pipeline;
+use hangline::report::{CAUTION, inspection, report};
+
+fn main() -> ExitCode {
+    let cli = Cli::parse();
+    let result = match &cli.command {
+        Command::Solve(a) => solve(a),
+        Command::Inspect(a) => inspect(a),
+    };
+    match result {
+        Ok(()) => ExitCode::SUCCESS,
+        Err(e) => {
+            #[allow(clippy::print_stderr)]
+            {
+                eprintln!("hangline: error: {e:#}");
+            }
+            ExitCode::from(1)
+        }
+    }
+}
+
+#[allow(clippy::print_stdout)]
+fn say(quiet: bool, line: &str) {
+    if !quiet {
+        println!("{line}");
+    }
+}
+
+#[allow(clippy::print_stderr)]
+fn warn(line: &str) {
+    eprintln!("hangline: warning: {line}");
+}
+
+fn read_input(path: &Path) -> Result<Vec<u8>> {
+    std::fs::read(path).with_context(|| format!("cannot read {}", path.display()))
+}
+
+/// True when `a` and `b` name the same existing file.
+fn same_file(a: &Path, b: &Path) -> bool {
+    match (a.canonicalize(), b.canonicalize()) {
+        (Ok(x), Ok(y)) => x == y,
+        _ => false,
+    }
+}
+
+fn default_output(input: &Path) -> PathBuf {
+    let stem = input.file_stem().map_or_else(|| "drawing".into(), |s| s.to_string_lossy().into_owned());
+    input.with_file_name(format!("{stem}-hangline.dxf"))
+}
+
+/// A temporary file in `dest`'s folder, to be renamed onto `dest`.
+fn temp_beside(dest: &Path) -> Result<tempfile::NamedTempFile> {
+    let dir = match dest.parent() {
+        Some(d) if !d.as_os_str().is_empty() => d.to_path_buf(),
+        _ => PathBuf::from("."),
+    };
+    tempfile::Builder::new()
+        .prefix(".hangline-")
+        .suffix(".tmp")
+        .tempfile_in(&dir)
+        .with_context(|| format!("cannot create a file in {}", dir.display()))
+}
+
+fn solve(a: &SolveArgs) -> Result<()> {
+    let job = a.job()?;
+    let output = a.output.clone().unwrap_or_else(|| default_output(&a.input));
+    if same_file(&output, &a.input) && !a.force {
+        bail!("the output {} is the input drawing; give another -o, or --force to replace the input", output.display());
+    }
+    if let Some(r) = &a.report {
+        if same_file(r, &a.input) || r == &output {
+            bail!("the report {} would overwrite a drawing; give the report another name", r.display());
+        }
+    }
+    let bytes = read_input(&a.input)?;
+    let input_name = a.input.display().to_string();
+
+    let mut temp = temp_beside(&output)?;
+    let outcome = {
+        let mut w = BufWriter::new(temp.as_file_mut());
+        let outcome = pipeline::run(&bytes, &job, &mut w).with_context(|| input_name.clone())?;
+        w.flush().with_context(|| format!("cannot write {}", output.display()))?;
+        outcome
+    };
+    let report_temp = match &a.report {
+        Some(path) => {
+            let mut t = temp_beside(path)?;
+            let r = report(&input_name, &outcome.reading, &outcome.solution, Some(&outcome.placement));
+            serde_json::to_writer_pretty(t.as_file_mut(), &r).context("cannot write the report")?;
+            t.as_file_mut().write_all(b"\n").context("cannot write the report")?;
+            Some((t, path))
+        }
+        None => None,
+    };
+    temp.persist(&output).with_context(|| format!("cannot write {}", output.display()))?;
+    if let Some((t, path)) = report_temp {
+        t.persist(path).with_context(|| format!("cannot write {}", path.display()))?;
+    }
+
+    let r = &outcome.reading;
+    let s = &outcome.solution;
+    let st = &r.structure;
+    let u = st.units();
+    for w in r.warnings.iter().chain(&s.warnings) {
+        warn(w);
+    }
+    let q = a.quiet;
+    let total: f64 = st.loads().iter().map(|l| l.magnitude()).sum();
+    say(
+        q,
+        &format!(
+            "read    {input_name} ({}, {}; lengths in {}, forces in {}): 2 supports, {} loads ({} in all){}",
+            r.release.name(),
+            if r.binary { "binary" } else { "ASCII" },
+            u.length,
+            u.force,
+            st.loads().len(),
+            fmt_force(total, u.force),
+            if st.deck().is_some() { ", deck" } else { "" }
+        ),
+    );
+    let conds: Vec<String> = s
+        .conditions
+        .iter()
+        .map(|c| match (c.point, c.value) {
+            (Some(p), _) => format!("{} ({}, {})", c.kind, p[0], p[1]),
+            (None, Some(v)) => format!("{} {v}", c.kind),
+            _ => c.kind.to_string(),
+        })
+        .collect();
+    say(q, &format!("solved  {} with {}", s.form, conds.join(", ")));
+    let pole = st.loads().len() + 1;
+    let word = if s.form == hangline::solve::Form::Cable { "sag" } else { "rise" };
+    say(
+        q,
+        &format!(
+            "        H = {}; largest force {} in {}; {word} {} {} at x = {}; length {} {}",
+            fmt_force(s.thrust, u.force),
+            fmt_force(s.max_force(), u.force),
+            member_name(s.max_segment, pole),
+            fmt_length(s.sag.value, u.length),
+            u.length,
+            fmt_length(s.sag.x, u.length),
+            fmt_length(s.length(), u.length),
+            u.length,
+        ),
+    );
+    for t in &s.towers {
+        say(
+            q,
+            &format!(
+                "        {} tower: the profile meets its axis at y = {}, {} {} above its foot",
+                if t.side == 0 { "left" } else { "right" },
+                fmt_length(t.at.y, u.length),
+                fmt_length(t.height, u.length),
+                u.length
+            ),
+        );
+    }
+    let sum = &outcome.summary;
+    let mut wrote = format!(
+        "wrote   {} ({} entities added{}{})",
+        output.display(),
+        sum.added,
+        if sum.new_layers.is_empty() { String::new() } else { format!(", {} layers", sum.new_layers.len()) },
+        if sum.replaced > 0 { format!(", {} from an earlier run replaced", sum.replaced) } else { String::new() }
+    );
+    if let Some(path) = &a.report {
+        wrote.push_str(&format!(" and {}", path.display()));
+    }
+    say(q, &wrote);
+    say(q, &format!("caution {CAUTION}"));
+    Ok(())
+}
+
+#[allow(clippy::print_stdout)]
+fn inspect(a: &InspectArgs) -> Result<()> {
+    let (options, layers) = a.read.options()?;
+    let bytes = read_input(&a.input)?;
+    let name = a.input.display().to_string();
+    let reading = pipeline::inspect(&bytes, &options, &layers).with_context(|| name.clone())?;
+    let ins = inspection(&name, &reading);
+    if a.json {
+        println!("{}", serde_json::to_string_pretty(&ins)?);
+        return Ok(());
+    }
+    let u = ins.units;
+    println!(
+        "drawing {name}: {} {}; lengths in {} ({}); forces in {} ({})",
+        ins.input.version,
+        if ins.input.binary { "binary" } else { "ASCII" },
+        u.length,
+        ins.input.length_unit_from,
+        u.force,
+        ins.input.force_unit_from
+    );
+    println!("layers  {}", ins.layers.join(", "));
+    println!("supports (layer {}):", options.layers.supports);
+    for (s, side) in ins.supports.iter().zip(["left ", "right"]) {
+        let what = match (s.y, s.axis) {
+            (Some(y), _) => format!("point       ({}, {})", s.x, y),
+            (None, Some([f, t])) => format!("tower axis  x = {} (foot {f}, top {t}): height found by solving", s.x),
+            _ => String::new(),
+        };
+        println!("  {side}  {what}   entity {}", s.handle.as_deref().unwrap_or("-"));
+    }
+    println!(
+        "loads (layer {}): {}, {} in all",
+        options.layers.loads,
+        ins.loads.len(),
+        fmt_force(ins.total_load, u.force)
+    );
+    for (k, l) in ins.loads.iter().enumerate() {
+        let dir = if l.force.x == 0.0 {
+            "down".to_string()
+        } else {
+            format!("{:.1}° from vertical", l.force.x.atan2(-l.force.y).to_degrees())
+        };
+        let label = match (&l.label, &l.label_handle) {
+            (Some(t), Some(h)) => format!("label '{t}' (entity {h})"),
+            (Some(t), None) => format!("label '{t}'"),
+            (None, _) => "magnitude from attribute or line length".into(),
+        };
+        println!(
+            "  {:>3}  {}  at ({}, {})  {} {}  {label}  entity {}",
+            k + 1,
+            member_name(k, k + 1),
+            fmt_length(l.at.x, u.length),
+            fmt_length(l.at.y, u.length),
+            fmt_force(l.magnitude, u.force),
+            dir,
+            l.handle.as_deref().unwrap_or("-")
+        );
+    }
+    if ins.deck_segments > 0 {
+        println!("deck (layer {}): {} segments", options.layers.deck, ins.deck_segments);
+    } else {
+        println!("deck (layer {}): none", options.layers.deck);
+    }
+    for w in &ins.warnings {
+        println!("warning: {w}");
+    }
+    Ok(())
+}

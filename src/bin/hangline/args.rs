@@ -1,0 +1,313 @@
+//! Command-line arguments, parsed raw by clap and then checked into the
+//! library's options before any work starts.
+
+use std::path::PathBuf;
+
+use anyhow::{Result, anyhow, bail};
+use clap::{Args, Parser, Subcommand};
+use kurbo::Point;
+
+use hangline::layout::{LayoutOptions, Role};
+use hangline::pipeline::{ForceValue, Given, Job, LengthValue};
+use hangline::read::label::{parse_quantity_force, parse_quantity_length};
+use hangline::read::{InputLayers, ReadOptions};
+use hangline::solve::Form;
+use hangline::units::{ForceUnit, LengthUnit};
+use hangline::write::OutputLayers;
+
+const SOLVE_EXAMPLES: &str = "\
+Examples:
+  Cable through both supports with a 6 m sag:
+    hangline solve bridge.dxf --sag 6 --report bridge.json
+  Cable whose low point is level at x = 24 and passes through (24, 3.5):
+    hangline solve bridge.dxf --level-at 24 --through 24,3.5
+  Arch with a 9 m rise, written to another file:
+    hangline solve arch.dxf --arch --rise 9 -o arch-funicular.dxf
+  Towers whose height follows: give three conditions of your own:
+    hangline solve towers.dxf --thrust \"450 kN\" --level-at 30 --through 30,4
+
+Each fixed support point (POINT, CIRCLE or INSERT on the supports layer)
+counts as one condition; a tower axis (vertical LINE) counts as none.
+Exactly three conditions are needed in all.";
+
+const INSPECT_EXAMPLES: &str = "\
+Examples:
+  hangline inspect bridge.dxf
+  hangline inspect bridge.dxf --json --layer loads=LASTEN";
+
+/// Funicular cables and arches by graphic statics, on your own DXF drawing.
+///
+/// Reads supports, load lines with their labels and the deck from a layered
+/// DXF drawing, finds the funicular (the shape that carries the loads in pure
+/// tension or compression) and writes the drawing back with the profile, the
+/// force diagram, forces and dimensions on layers of their own.
+///
+/// A preliminary design aid: results must be checked by a qualified engineer
+/// under the local codes.
+#[derive(Debug, Parser)]
+#[command(name = "hangline", version, about, long_about)]
+pub struct Cli {
+    /// What to do.
+    #[command(subcommand)]
+    pub command: Command,
+}
+
+/// The subcommands.
+#[derive(Debug, Subcommand)]
+pub enum Command {
+    /// Find the funicular and write the drawing back with it.
+    #[command(after_help = SOLVE_EXAMPLES)]
+    Solve(Box<SolveArgs>),
+    /// Show what the drawing holds (supports, loads, units) without solving.
+    #[command(after_help = INSPECT_EXAMPLES)]
+    Inspect(InspectArgs),
+}
+
+/// How to read the drawing (shared by both subcommands).
+#[derive(Debug, Args)]
+pub struct ReadArgs {
+    /// Rename a layer: ROLE=NAME, repeatable. Input roles: supports, loads,
+    /// deck; output roles: profile, hangers, diagram, forces, dimensions,
+    /// bow, notes.
+    #[arg(long = "layer", value_name = "ROLE=NAME")]
+    pub layers: Vec<String>,
+    /// The drawing's length unit (mm, cm, dm, m, km, in, ft, yd), when
+    /// $INSUNITS is missing (R12) or wrong. Without it and without
+    /// $INSUNITS, metres are assumed.
+    #[arg(long, value_name = "UNIT")]
+    pub units: Option<String>,
+    /// Force unit of the results (N, kN, MN, lbf, kip). Default: the labels'
+    /// unit when they all agree, else kN.
+    #[arg(long, value_name = "UNIT")]
+    pub force_unit: Option<String>,
+    /// Unit of labels written without one (default kN).
+    #[arg(long, value_name = "UNIT", default_value = "kN")]
+    pub label_unit: String,
+    /// Take each load line's magnitude from its length: force per drawing
+    /// unit, e.g. "10 kN" (labels are then ignored).
+    #[arg(long, value_name = "FORCE")]
+    pub load_scale: Option<String>,
+}
+
+/// `hangline solve`.
+#[derive(Debug, Args)]
+pub struct SolveArgs {
+    /// The input drawing (ASCII or binary DXF, R12 to R2018).
+    pub input: PathBuf,
+    /// The output drawing (default: INPUT-hangline.dxf beside the input).
+    #[arg(short, long, value_name = "OUT.dxf")]
+    pub output: Option<PathBuf>,
+    /// Also write a JSON report.
+    #[arg(long, value_name = "FILE.json")]
+    pub report: Option<PathBuf>,
+    /// Find an arch (compression, above the chord) instead of a cable.
+    #[arg(long)]
+    pub arch: bool,
+    /// The profile passes through this point (drawing coordinates); repeatable.
+    #[arg(long, value_name = "X,Y")]
+    pub through: Vec<String>,
+    /// The horizontal force at the left support, e.g. 450 or "450 kN".
+    #[arg(long, value_name = "FORCE")]
+    pub thrust: Option<String>,
+    /// The cable's sag: the largest vertical distance from the chord between
+    /// the supports to the profile, e.g. 6 or "6 m".
+    #[arg(long, value_name = "LENGTH")]
+    pub sag: Option<String>,
+    /// The arch's rise above the chord between the supports (with --arch).
+    #[arg(long, value_name = "LENGTH")]
+    pub rise: Option<String>,
+    /// The largest force in any segment.
+    #[arg(long, value_name = "FORCE")]
+    pub max_force: Option<String>,
+    /// The profile is level (its low point, or an arch's crown) at this x.
+    #[arg(long, value_name = "X")]
+    pub level_at: Option<String>,
+    /// Force diagram scale: force per drawing unit, e.g. "10 kN" (default:
+    /// a round scale that fits).
+    #[arg(long, value_name = "FORCE")]
+    pub force_scale: Option<String>,
+    /// Where to draw the top of the force diagram's load line (default:
+    /// beside the drawing).
+    #[arg(long, value_name = "X,Y")]
+    pub diagram_at: Option<String>,
+    /// Text height for annotations, drawing units (default: from the span).
+    #[arg(long, value_name = "LENGTH")]
+    pub text_height: Option<f64>,
+    /// Allow the output to replace the input file.
+    #[arg(long)]
+    pub force: bool,
+    /// Print nothing but errors.
+    #[arg(short, long)]
+    pub quiet: bool,
+    /// Reading options.
+    #[command(flatten)]
+    pub read: ReadArgs,
+}
+
+/// `hangline inspect`.
+#[derive(Debug, Args)]
+pub struct InspectArgs {
+    /// The drawing to inspect.
+    pub input: PathBuf,
+    /// Print JSON instead of text.
+    #[arg(long)]
+    pub json: bool,
+    /// Reading options.
+    #[command(flatten)]
+    pub read: ReadArgs,
+}
+
+fn parse_point(s: &str, flag: &str) -> Result<Point> {
+    let parts: Vec<&str> = s.split(',').map(str::trim).collect();
+    let [x, y] = parts.as_slice() else {
+        bail!("{flag} '{s}' is not a point: write X,Y in drawing units, e.g. {flag} 24,3.5");
+    };
+    let num = |v: &str| -> Result<f64> {
+        let n: f64 =
+            v.parse().map_err(|_| anyhow!("{flag} '{s}': '{v}' is not a number; write X,Y, e.g. {flag} 24,3.5"))?;
+        if !n.is_finite() || n.abs() >= 1e12 {
+            bail!("{flag} '{s}': coordinates must be finite and below 1e12");
+        }
+        Ok(n)
+    };
+    Ok(Point::new(num(x)?, num(y)?))
+}
+
+fn parse_force(s: &str, flag: &str) -> Result<ForceValue> {
+    let (value, unit) = parse_quantity_force(s).map_err(|e| anyhow!("{flag} {e}"))?;
+    if !(value > 0.0 && value < 1e12) {
+        bail!("{flag} '{s}' must be a positive force below 1e12");
+    }
+    Ok(ForceValue { value, unit })
+}
+
+fn parse_length(s: &str, flag: &str) -> Result<LengthValue> {
+    let (value, unit) = parse_quantity_length(s).map_err(|e| anyhow!("{flag} {e}"))?;
+    if !(value > 0.0 && value < 1e12) {
+        bail!("{flag} '{s}' must be a positive length below 1e12");
+    }
+    Ok(LengthValue { value, unit })
+}
+
+fn parse_unit<T: std::str::FromStr<Err = String>>(s: &str, flag: &str) -> Result<T> {
+    s.parse::<T>().map_err(|e| anyhow!("{flag}: {e}"))
+}
+
+impl ReadArgs {
+    /// Checks the reading options; also returns the output layer names.
+    pub fn options(&self) -> Result<(ReadOptions, OutputLayers)> {
+        let mut input = InputLayers::default();
+        let mut output = OutputLayers::default();
+        for spec in &self.layers {
+            let (role, name) = spec
+                .split_once('=')
+                .ok_or_else(|| anyhow!("--layer '{spec}' must be ROLE=NAME, e.g. --layer loads=LASTEN"))?;
+            let (role, name) = (role.trim().to_ascii_lowercase(), name.trim());
+            if name.is_empty() {
+                bail!("--layer '{spec}': the layer name is empty");
+            }
+            match role.as_str() {
+                "supports" => input.supports = name.into(),
+                "loads" => input.loads = name.into(),
+                "deck" => {
+                    input.deck = name.into();
+                    input.deck_required = true;
+                }
+                other => {
+                    let role = Role::ALL.iter().find(|r| r.key() == other).ok_or_else(|| {
+                        anyhow!(
+                            "--layer '{spec}': unknown role '{other}'; roles are supports, loads, deck, {}",
+                            Role::ALL.iter().map(|r| r.key()).collect::<Vec<_>>().join(", ")
+                        )
+                    })?;
+                    output.set(*role, name);
+                }
+            }
+        }
+        let inputs = [&input.supports, &input.loads, &input.deck];
+        for out in output.all() {
+            if inputs.iter().any(|i| hangline::dxf::names_match(i, out)) {
+                bail!(
+                    "--layer: '{out}' is both an input and an output layer; the tool replaces its output layers on every run, so give them different names"
+                );
+            }
+        }
+        let mut outs: Vec<&str> = output.all().collect();
+        outs.sort_by_key(|n| n.to_uppercase());
+        if outs.windows(2).any(|w| hangline::dxf::names_match(w[0], w[1])) {
+            bail!("--layer: two output roles share one layer; give each its own");
+        }
+        let load_scale = match &self.load_scale {
+            Some(s) => {
+                let f = parse_force(s, "--load-scale")?;
+                Some((f.value, f.unit.unwrap_or(parse_unit(&self.label_unit, "--label-unit")?)))
+            }
+            None => None,
+        };
+        Ok((
+            ReadOptions {
+                layers: input,
+                length_unit: self.units.as_deref().map(|u| parse_unit::<LengthUnit>(u, "--units")).transpose()?,
+                force_unit: self
+                    .force_unit
+                    .as_deref()
+                    .map(|u| parse_unit::<ForceUnit>(u, "--force-unit"))
+                    .transpose()?,
+                label_unit: parse_unit(&self.label_unit, "--label-unit")?,
+                load_scale,
+            },
+            output,
+        ))
+    }
+}
+
+impl SolveArgs {
+    /// Checks everything into a job.
+    pub fn job(&self) -> Result<Job> {
+        let (read, layers) = self.read.options()?;
+        let mut given = Vec::new();
+        for t in &self.through {
+            let p = parse_point(t, "--through")?;
+            given.push(Given::Through(p.x, p.y));
+        }
+        if let Some(s) = &self.thrust {
+            given.push(Given::Thrust(parse_force(s, "--thrust")?));
+        }
+        if let Some(s) = &self.sag {
+            given.push(Given::Sag(parse_length(s, "--sag")?));
+        }
+        if let Some(s) = &self.rise {
+            given.push(Given::Rise(parse_length(s, "--rise")?));
+        }
+        if let Some(s) = &self.max_force {
+            given.push(Given::MaxForce(parse_force(s, "--max-force")?));
+        }
+        if let Some(s) = &self.level_at {
+            let x: f64 = s.trim().parse().map_err(|_| {
+                anyhow!("--level-at '{s}' is not a number: give the x in drawing units, e.g. --level-at 24")
+            })?;
+            if !x.is_finite() {
+                bail!("--level-at '{s}' must be a finite x");
+            }
+            given.push(Given::LevelAt(x));
+        }
+        let force_scale = match &self.force_scale {
+            Some(s) => Some(parse_force(s, "--force-scale")?),
+            None => None,
+        };
+        if let Some(h) = self.text_height
+            && !(h > 0.0 && h.is_finite())
+        {
+            bail!("--text-height must be a positive length in drawing units");
+        }
+        let diagram_at = self.diagram_at.as_deref().map(|s| parse_point(s, "--diagram-at")).transpose()?;
+        Ok(Job {
+            read,
+            form: if self.arch { Form::Arch } else { Form::Cable },
+            given,
+            layout: LayoutOptions { force_scale: None, diagram_at, text_height: self.text_height },
+            force_scale,
+            layers,
+        })
+    }
+}

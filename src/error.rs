@@ -1,0 +1,29 @@
+//! The library's error: one variant per stage, each carrying its stage's
+//! typed error (whose message says what is wrong, where, and what to do).
+
+use thiserror::Error;
+
+use crate::dxf::DxfError;
+use crate::read::ReadError;
+use crate::solve::SolveError;
+use crate::write::WriteError;
+
+/// Anything that stops a drawing from being processed.
+#[derive(Debug, Error)]
+pub enum Error {
+    /// The file is not a readable DXF drawing.
+    #[error(transparent)]
+    Dxf(#[from] DxfError),
+    /// The drawing does not describe a structure.
+    #[error(transparent)]
+    Read(#[from] ReadError),
+    /// A condition given by the user cannot be used as given.
+    #[error("{0}")]
+    Condition(String),
+    /// No funicular meets the conditions.
+    #[error(transparent)]
+    Solve(#[from] SolveError),
+    /// The output could not be written.
+    #[error(transparent)]
+    Write(#[from] WriteError),
+}

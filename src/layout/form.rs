@@ -1,0 +1,165 @@
+//! The form diagram's additions: profile, hangers or posts, force
+//! annotations, Bow's notation letters and dimensions.
+//!
+//! Bow's notation (R. H. Bow, *Economics of Construction*, 1873, from
+//! memory): the load lines divide the load side of the profile into spaces
+//! A, B, … (A between the left support and the first load); the space between
+//! the profile and the chord gets the next letter, and is the pole of the
+//! force diagram. A segment is named by the two spaces it separates (AE),
+//! as its ray is in the force diagram (ea).
+
+use kurbo::{Line, Point, Vec2};
+
+use super::dimension::linear;
+use super::nice::{fmt_force, member_name, space_letter};
+use super::shapes::{DimStyle, HAlign, Item, Role, Shape, Text, VAlign};
+use crate::model::{Structure, Support};
+use crate::solve::{Form, Solution};
+
+fn item(role: Role, shape: Shape) -> Item {
+    Item { role, shape, colour: None }
+}
+
+fn text(at: Point, height: f64, rotation: f64, content: String, h: HAlign, v: VAlign) -> Shape {
+    Shape::Text(Text { at, height, rotation, content, h, v })
+}
+
+/// The profile's y at `x` (linear between nodes; ends held flat).
+fn profile_y(nodes: &[Point], x: f64) -> f64 {
+    for w in nodes.windows(2) {
+        if x >= w[0].x && x <= w[1].x && w[1].x > w[0].x {
+            return w[0].y + (w[1].y - w[0].y) * (x - w[0].x) / (w[1].x - w[0].x);
+        }
+    }
+    nodes.first().map_or(0.0, |p| p.y)
+}
+
+/// Where the line through `p` along `dir` meets the deck nearest to `p`.
+fn deck_hit(segments: &[Line], p: Point, dir: Vec2) -> Option<Point> {
+    let mut best: Option<(f64, Point)> = None;
+    for s in segments {
+        let e = s.p1 - s.p0;
+        let den = dir.cross(e);
+        if den.abs() < 1e-300 {
+            continue;
+        }
+        let w = s.p0 - p;
+        let t = w.cross(e) / den;
+        let u = w.cross(dir) / den;
+        if (-1e-12..=1.0 + 1e-12).contains(&u) && best.is_none_or(|(bt, _)| t.abs() < bt.abs()) {
+            best = Some((t, p + dir * t));
+        }
+    }
+    best.map(|(_, q)| q)
+}
+
+pub(super) fn form_items(structure: &Structure, s: &Solution, th: f64, dim: &DimStyle) -> Vec<Item> {
+    let units = structure.units();
+    let nodes = &s.nodes;
+    let n = structure.loads().len();
+    let pole_space = n + 1;
+    // The load side: below a cable (loads hang from it), above an arch.
+    let load_side = match s.form {
+        Form::Cable => -1.0,
+        Form::Arch => 1.0,
+    };
+    let mut items = vec![item(Role::Profile, Shape::Polyline { points: nodes.clone(), closed: false })];
+
+    // Hangers (cable) or posts (arch), along each load's line of action.
+    if let Some(deck) = structure.deck() {
+        for (k, load) in structure.loads().iter().enumerate() {
+            let node = nodes[k + 1];
+            let dir = load.force / load.force.hypot();
+            if let Some(q) = deck_hit(&deck.segments, node, dir) {
+                items.push(item(Role::Hangers, Shape::Line(Line::new(q, node))));
+            }
+        }
+    }
+
+    // Segment forces, on the pole side of each segment, along it.
+    let fh = 0.8 * th;
+    for (k, seg) in s.segments.iter().enumerate() {
+        let (a, b) = (nodes[k], nodes[k + 1]);
+        let d = b - a;
+        if d.hypot() == 0.0 {
+            continue;
+        }
+        let mut angle = d.y.atan2(d.x).to_degrees();
+        if angle > 90.0 {
+            angle -= 180.0;
+        } else if angle <= -90.0 {
+            angle += 180.0;
+        }
+        let normal = Vec2::new(-d.y, d.x) / d.hypot();
+        let normal = if normal.y * load_side > 0.0 { -normal } else { normal };
+        let at = a.midpoint(b) + normal * (0.5 * th + fh / 2.0);
+        let content = format!("{} {}", member_name(k, pole_space), fmt_force(seg.force, units.force));
+        items.push(item(Role::Forces, text(at, fh, angle, content, HAlign::Center, VAlign::Middle)));
+    }
+
+    // Reactions, outside the span at each support.
+    for (side, r) in s.reactions.iter().enumerate() {
+        let node = if side == 0 { nodes[0] } else { nodes[nodes.len() - 1] };
+        let (dx, h) = if side == 0 { (-th, HAlign::Right) } else { (th, HAlign::Left) };
+        let lines = [
+            format!("R = {}", fmt_force(r.hypot(), units.force)),
+            format!("H {}  V {}", fmt_force(r.x.abs(), units.force), fmt_force(r.y, units.force)),
+        ];
+        for (i, l) in lines.into_iter().enumerate() {
+            let at = node + Vec2::new(dx, -(i as f64) * 1.5 * fh);
+            items.push(item(Role::Forces, text(at, fh, 0.0, l, h, VAlign::Middle)));
+        }
+    }
+
+    // Bow's letters: spaces between load lines on the load side, the pole
+    // space between profile and chord.
+    let lh = 1.2 * th;
+    for k in 0..=n {
+        let x = (nodes[k].x + nodes[k + 1].x) / 2.0;
+        let at = Point::new(x, profile_y(nodes, x) + load_side * 2.5 * th);
+        items.push(item(Role::Bow, text(at, lh, 0.0, space_letter(k), HAlign::Center, VAlign::Middle)));
+    }
+    let pole_at = Point::new(s.sag.x, (s.sag.chord_y + s.sag.profile_y) / 2.0);
+    items.push(item(Role::Bow, text(pole_at, lh, 0.0, space_letter(pole_space), HAlign::Center, VAlign::Middle)));
+
+    // Dimensions.
+    let lowest = nodes
+        .iter()
+        .map(|p| p.y)
+        .chain(structure.deck().into_iter().flat_map(|d| d.segments.iter().flat_map(|l| [l.p0.y, l.p1.y])))
+        .chain([structure.left(), structure.right()].into_iter().filter_map(|s| match s {
+            Support::Axis { foot, .. } => Some(*foot),
+            Support::Point { .. } => None,
+        }))
+        .fold(f64::INFINITY, f64::min);
+    let (first, last) = (nodes[0], nodes[nodes.len() - 1]);
+    let span = linear(first, last, 0.0, Point::new(first.x, lowest - 4.0 * th), "span", dim);
+    items.push(item(Role::Dimensions, Shape::Dimension(Box::new(span))));
+    let word = match s.form {
+        Form::Cable => "sag",
+        Form::Arch => "rise",
+    };
+    let sag = linear(
+        Point::new(s.sag.x, s.sag.chord_y),
+        Point::new(s.sag.x, s.sag.profile_y),
+        90.0,
+        Point::new(s.sag.x + 2.5 * th, 0.0),
+        word,
+        dim,
+    );
+    items.push(item(Role::Dimensions, Shape::Dimension(Box::new(sag))));
+    for t in &s.towers {
+        let support = if t.side == 0 { structure.left() } else { structure.right() };
+        if let Support::Axis { x, foot, .. } = support {
+            let out = if t.side == 0 { -3.0 * th } else { 3.0 * th };
+            let d = linear(Point::new(*x, *foot), t.at, 90.0, Point::new(x + out, 0.0), "tower", dim);
+            items.push(item(Role::Dimensions, Shape::Dimension(Box::new(d))));
+        }
+    }
+    if let Some(c) = crate::solve::clearance(structure, s) {
+        let (q, node) = (Point::new(c.x, c.deck_y), Point::new(c.x, c.profile_y));
+        let d = linear(q, node, 90.0, Point::new(c.x - 2.5 * th, 0.0), "clearance", dim);
+        items.push(item(Role::Dimensions, Shape::Dimension(Box::new(d))));
+    }
+    items
+}

@@ -1,0 +1,133 @@
+//! The whole job on one drawing, bytes in and bytes out: scan, read, solve,
+//! lay out, write. No file system here; the binary owns paths, temporary
+//! files and renames.
+
+use std::io::Write;
+
+use kurbo::Point;
+
+use crate::dxf::File;
+use crate::error::Error;
+use crate::layout::{LayoutOptions, Placement, layout};
+use crate::read::{ReadOptions, Reading, read, scan_options};
+use crate::solve::{Condition, Form, Solution, solve};
+use crate::units::{ForceUnit, LengthUnit, Units};
+use crate::write::{OutputLayers, Summary, write};
+
+/// A force as given on the command line: a value and, optionally, its unit
+/// (without one, the model's force unit).
+#[derive(Clone, Copy, Debug, PartialEq)]
+pub struct ForceValue {
+    /// The value.
+    pub value: f64,
+    /// Its unit, if written.
+    pub unit: Option<ForceUnit>,
+}
+
+/// A length as given on the command line: without a unit, drawing units.
+#[derive(Clone, Copy, Debug, PartialEq)]
+pub struct LengthValue {
+    /// The value.
+    pub value: f64,
+    /// Its unit, if written.
+    pub unit: Option<LengthUnit>,
+}
+
+/// A condition as the user gave it, before the drawing's units are known.
+#[derive(Clone, Copy, Debug, PartialEq)]
+pub enum Given {
+    /// `--through X,Y` (drawing coordinates).
+    Through(f64, f64),
+    /// `--thrust H`.
+    Thrust(ForceValue),
+    /// `--sag F`.
+    Sag(LengthValue),
+    /// `--rise F`.
+    Rise(LengthValue),
+    /// `--max-force T`.
+    MaxForce(ForceValue),
+    /// `--level-at X` (drawing x).
+    LevelAt(f64),
+}
+
+/// What to do with a drawing.
+#[derive(Clone, Debug, PartialEq)]
+pub struct Job {
+    /// How to read it.
+    pub read: ReadOptions,
+    /// Cable or arch.
+    pub form: Form,
+    /// The user's conditions (fixed supports count as well).
+    pub given: Vec<Given>,
+    /// Layout choices.
+    pub layout: LayoutOptions,
+    /// The force diagram's scale (force per drawing unit) as given, which
+    /// overrides `layout.force_scale` once the model's force unit is known.
+    pub force_scale: Option<ForceValue>,
+    /// Output layer names.
+    pub layers: OutputLayers,
+}
+
+/// What came of a job.
+#[derive(Clone, Debug)]
+pub struct Outcome {
+    /// What was read.
+    pub reading: Reading,
+    /// The funicular.
+    pub solution: Solution,
+    /// Where the force diagram went.
+    pub placement: Placement,
+    /// What the writer did.
+    pub summary: Summary,
+}
+
+/// Turns the user's conditions into the solver's, in the model's units.
+pub fn conditions(given: &[Given], form: Form, units: Units) -> Result<Vec<Condition>, Error> {
+    let force = |f: ForceValue| f.value * f.unit.map_or(1.0, |u| u.factor_to(units.force));
+    let length = |l: LengthValue| l.value * l.unit.map_or(1.0, |u| u.factor_to(units.length));
+    given
+        .iter()
+        .map(|g| {
+            Ok(match *g {
+                Given::Through(x, y) => Condition::Through(Point::new(x, y)),
+                Given::Thrust(f) => Condition::Thrust(force(f)),
+                Given::MaxForce(f) => Condition::MaxForce(force(f)),
+                Given::LevelAt(x) => Condition::LevelAt(x),
+                Given::Sag(l) if form == Form::Cable => Condition::Sag(length(l)),
+                Given::Rise(l) if form == Form::Arch => Condition::Sag(length(l)),
+                Given::Sag(_) => {
+                    return Err(Error::Condition(
+                        "--sag is for a cable; an arch rises above its chord: give --rise instead".into(),
+                    ));
+                }
+                Given::Rise(_) => {
+                    return Err(Error::Condition(
+                        "--rise is for an arch (--arch); a cable sags below its chord: give --sag instead".into(),
+                    ));
+                }
+            })
+        })
+        .collect()
+}
+
+/// Reads a drawing without solving: what `inspect` shows.
+pub fn inspect(bytes: &[u8], options: &ReadOptions, layers: &OutputLayers) -> Result<Reading, Error> {
+    let file = File::scan(bytes, &scan_options(&options.layers, layers.all()))?;
+    Ok(read(&file, options)?)
+}
+
+/// Runs the whole job on `bytes`, writing the output drawing to `out`.
+pub fn run(bytes: &[u8], job: &Job, out: &mut dyn Write) -> Result<Outcome, Error> {
+    let file = File::scan(bytes, &scan_options(&job.read.layers, job.layers.all()))?;
+    let reading = read(&file, &job.read)?;
+    let conditions = conditions(&job.given, job.form, reading.structure.units())?;
+    let solution = solve(&reading.structure, job.form, &conditions)?;
+    let mut layout_options = job.layout;
+    if let Some(f) = job.force_scale {
+        let unit = reading.structure.units().force;
+        layout_options.force_scale = Some(f.value * f.unit.map_or(1.0, |u| u.factor_to(unit)));
+    }
+    let (additions, placement) = layout(&reading.structure, &solution, reading.extents, &layout_options);
+    let summary = write(&file, &additions, &job.layers, out)?;
+    Ok(Outcome { reading, solution, placement, summary })
+}

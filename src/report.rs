@@ -1,0 +1,436 @@
+//! The machine-readable report (`--report FILE.json`).
+//!
+//! Keys scripts rely on, and their meaning (lengths in `units.length`, forces
+//! in `units.force`, y up):
+//! * `structure`: `"cable"` or `"arch"`;
+//! * `units`: `{ "length", "force" }`;
+//! * `thrust`: H > 0, the horizontal force at the left support (for vertical
+//!   loads the same in every segment);
+//! * `supports`: left then right, each `{ x, y, kind, reaction: { x, y } }`,
+//!   the reaction being the force of the support on the structure;
+//! * `nodes`: `{ x, y }` from the left support to the right support inclusive;
+//! * `segments`: `{ force, length, name }` in the same order, force axial
+//!   and tension positive;
+//! * `conditions`: the three conditions used.
+//!
+//! Besides: `span`, `length` (of the profile), `max_force`, `sag` (or
+//! `rise`), `towers`, `clearance`, `loads` as read, `force_diagram`,
+//! `checks`, `warnings` and the `caution`.
+
+use serde::Serialize;
+
+use crate::layout::Placement;
+use crate::layout::nice::member_name;
+use crate::model::Support;
+use crate::read::Reading;
+use crate::solve::{Checks, Clearance, Solution, UsedCondition};
+use crate::units::Units;
+
+/// The caution every report carries.
+pub const CAUTION: &str = "hangline is a preliminary design aid: its results must be checked by a qualified engineer under the local codes before they are used.";
+
+/// An x, y pair.
+#[derive(Clone, Copy, Debug, PartialEq, Serialize)]
+pub struct Xy {
+    /// x.
+    pub x: f64,
+    /// y.
+    pub y: f64,
+}
+
+impl From<kurbo::Point> for Xy {
+    fn from(p: kurbo::Point) -> Xy {
+        Xy { x: p.x, y: p.y }
+    }
+}
+
+impl From<kurbo::Vec2> for Xy {
+    fn from(p: kurbo::Vec2) -> Xy {
+        Xy { x: p.x, y: p.y }
+    }
+}
+
+/// A support in the report.
+#[derive(Clone, Debug, PartialEq, Serialize)]
+pub struct SupportOut {
+    /// x of the support.
+    pub x: f64,
+    /// y of the support (found, for a tower axis).
+    pub y: f64,
+    /// `point` or `tower-axis`.
+    pub kind: &'static str,
+    /// Force of the support on the structure.
+    pub reaction: Xy,
+    /// The entity's handle.
+    #[serde(skip_serializing_if = "Option::is_none")]
+    pub handle: Option<String>,
+}
+
+/// A segment in the report.
+#[derive(Clone, Debug, PartialEq, Serialize)]
+pub struct SegmentOut {
+    /// Axial force, tension positive.
+    pub force: f64,
+    /// Length.
+    pub length: f64,
+    /// Bow's notation name (spaces on either side).
+    pub name: String,
+}
+
+/// A load in the report.
+#[derive(Clone, Debug, PartialEq, Serialize)]
+pub struct LoadOut {
+    /// Where the profile meets its line of action.
+    pub node: Xy,
+    /// The force vector.
+    pub force: Xy,
+    /// Its magnitude.
+    pub magnitude: f64,
+    /// Bow's notation name.
+    pub name: String,
+    /// The label as read.
+    #[serde(skip_serializing_if = "Option::is_none")]
+    pub label: Option<String>,
+    /// The load line's or block's handle.
+    #[serde(skip_serializing_if = "Option::is_none")]
+    pub handle: Option<String>,
+}
+
+/// The largest force.
+#[derive(Clone, Debug, PartialEq, Serialize)]
+pub struct MaxForce {
+    /// Its magnitude.
+    pub value: f64,
+    /// Index into `segments`.
+    pub segment: usize,
+    /// Bow's notation name.
+    pub name: String,
+}
+
+/// Sag or rise.
+#[derive(Clone, Copy, Debug, PartialEq, Serialize)]
+pub struct SagOut {
+    /// Largest vertical chord-to-profile distance.
+    pub value: f64,
+    /// Where.
+    pub x: f64,
+    /// Chord's y there.
+    pub chord_y: f64,
+    /// Profile's y there.
+    pub profile_y: f64,
+}
+
+/// A tower height found.
+#[derive(Clone, Debug, PartialEq, Serialize)]
+pub struct TowerOut {
+    /// `left` or `right`.
+    pub side: &'static str,
+    /// x of the axis.
+    pub x: f64,
+    /// Where the profile meets the axis.
+    pub y: f64,
+    /// Height above the drawn axis's lower end.
+    pub height: f64,
+    /// How far above the drawn axis's upper end (negative: below it).
+    pub above_top: f64,
+}
+
+/// The force diagram as drawn.
+#[derive(Clone, Copy, Debug, PartialEq, Serialize)]
+pub struct DiagramOut {
+    /// Force units per drawing unit.
+    pub scale: f64,
+    /// Where point a (top of the load line) was drawn.
+    pub at: Xy,
+}
+
+/// Where the input came from.
+#[derive(Clone, Debug, PartialEq, Serialize)]
+pub struct InputOut {
+    /// The input file as given.
+    pub file: String,
+    /// Its release.
+    pub version: &'static str,
+    /// True for binary DXF.
+    pub binary: bool,
+    /// How the length unit was decided.
+    pub length_unit_from: String,
+    /// How the force unit was decided.
+    pub force_unit_from: String,
+}
+
+/// The whole report.
+#[derive(Clone, Debug, PartialEq, Serialize)]
+pub struct Report {
+    /// Tool and version.
+    pub tool: String,
+    /// The caution.
+    pub caution: &'static str,
+    /// The input.
+    pub input: InputOut,
+    /// `cable` or `arch`.
+    pub structure: String,
+    /// Units of every number.
+    pub units: Units,
+    /// Horizontal force at the left support.
+    pub thrust: f64,
+    /// Horizontal distance between the supports.
+    pub span: f64,
+    /// Length of the profile.
+    pub length: f64,
+    /// Left and right support.
+    pub supports: Vec<SupportOut>,
+    /// Profile nodes, left support to right support.
+    pub nodes: Vec<Xy>,
+    /// Segments between nodes.
+    pub segments: Vec<SegmentOut>,
+    /// Loads left to right.
+    pub loads: Vec<LoadOut>,
+    /// The largest force.
+    pub max_force: MaxForce,
+    /// Sag of a cable.
+    #[serde(skip_serializing_if = "Option::is_none")]
+    pub sag: Option<SagOut>,
+    /// Rise of an arch.
+    #[serde(skip_serializing_if = "Option::is_none")]
+    pub rise: Option<SagOut>,
+    /// Tower heights found.
+    pub towers: Vec<TowerOut>,
+    /// Clearance to the deck.
+    #[serde(skip_serializing_if = "Option::is_none")]
+    pub clearance: Option<Clearance>,
+    /// The conditions used.
+    pub conditions: Vec<UsedCondition>,
+    /// The force diagram.
+    #[serde(skip_serializing_if = "Option::is_none")]
+    pub force_diagram: Option<DiagramOut>,
+    /// Self-checks.
+    pub checks: Checks,
+    /// Warnings from reading and solving.
+    pub warnings: Vec<String>,
+}
+
+/// Builds the report.
+#[must_use]
+pub fn report(input: &str, reading: &Reading, solution: &Solution, placement: Option<&Placement>) -> Report {
+    let st = &reading.structure;
+    let n = st.loads().len();
+    let pole = n + 1;
+    let supports = [st.left(), st.right()]
+        .iter()
+        .enumerate()
+        .map(|(i, s)| {
+            let node = if i == 0 { solution.nodes[0] } else { solution.nodes[solution.nodes.len() - 1] };
+            SupportOut {
+                x: node.x,
+                y: node.y,
+                kind: match s {
+                    Support::Point { .. } => "point",
+                    Support::Axis { .. } => "tower-axis",
+                },
+                reaction: solution.reactions[i].into(),
+                handle: s.origin().handle.clone(),
+            }
+        })
+        .collect();
+    let sag = SagOut {
+        value: solution.sag.value,
+        x: solution.sag.x,
+        chord_y: solution.sag.chord_y,
+        profile_y: solution.sag.profile_y,
+    };
+    let is_cable = solution.form == crate::solve::Form::Cable;
+    let mut warnings = reading.warnings.clone();
+    warnings.extend(solution.warnings.iter().cloned());
+    Report {
+        tool: format!("hangline {}", env!("CARGO_PKG_VERSION")),
+        caution: CAUTION,
+        input: InputOut {
+            file: input.to_string(),
+            version: reading.release.name(),
+            binary: reading.binary,
+            length_unit_from: reading.length_source.clone(),
+            force_unit_from: reading.force_source.clone(),
+        },
+        structure: solution.form.to_string(),
+        units: st.units(),
+        thrust: solution.thrust,
+        span: st.span(),
+        length: solution.length(),
+        supports,
+        nodes: solution.nodes.iter().map(|p| Xy::from(*p)).collect(),
+        segments: solution
+            .segments
+            .iter()
+            .enumerate()
+            .map(|(k, s)| SegmentOut { force: s.force, length: s.length, name: member_name(k, pole) })
+            .collect(),
+        loads: st
+            .loads()
+            .iter()
+            .enumerate()
+            .map(|(k, l)| {
+                let read = reading.loads.get(k);
+                LoadOut {
+                    node: solution.nodes[k + 1].into(),
+                    force: l.force.into(),
+                    magnitude: l.magnitude(),
+                    name: member_name(k, k + 1),
+                    label: read.and_then(|r| r.label.clone()),
+                    handle: l.origin.handle.clone(),
+                }
+            })
+            .collect(),
+        max_force: MaxForce {
+            value: solution.max_force(),
+            segment: solution.max_segment,
+            name: member_name(solution.max_segment, pole),
+        },
+        sag: is_cable.then_some(sag),
+        rise: (!is_cable).then_some(sag),
+        towers: solution
+            .towers
+            .iter()
+            .map(|t| TowerOut {
+                side: if t.side == 0 { "left" } else { "right" },
+                x: t.at.x,
+                y: t.at.y,
+                height: t.height,
+                above_top: t.above_top,
+            })
+            .collect(),
+        clearance: crate::solve::clearance(st, solution),
+        conditions: solution.conditions.clone(),
+        force_diagram: placement.map(|p| DiagramOut { scale: p.force_scale, at: p.diagram_at.into() }),
+        checks: solution.checks,
+        warnings,
+    }
+}
+
+/// A support as read, for `inspect`.
+#[derive(Clone, Debug, PartialEq, Serialize)]
+pub struct SupportRead {
+    /// `point` or `tower-axis`.
+    pub kind: &'static str,
+    /// x of the support.
+    pub x: f64,
+    /// y of a point support.
+    #[serde(skip_serializing_if = "Option::is_none")]
+    pub y: Option<f64>,
+    /// Lower and upper y of a tower axis.
+    #[serde(skip_serializing_if = "Option::is_none")]
+    pub axis: Option<[f64; 2]>,
+    /// The entity's handle.
+    #[serde(skip_serializing_if = "Option::is_none")]
+    pub handle: Option<String>,
+    /// The layer.
+    pub layer: String,
+}
+
+/// A load as read, for `inspect`.
+#[derive(Clone, Debug, PartialEq, Serialize)]
+pub struct LoadReadOut {
+    /// A point on the line of action.
+    pub at: Xy,
+    /// The force vector, model units.
+    pub force: Xy,
+    /// The magnitude, model units.
+    pub magnitude: f64,
+    /// The magnitude as written.
+    pub written: f64,
+    /// The unit as written.
+    pub written_unit: crate::units::ForceUnit,
+    /// The label's plain text.
+    #[serde(skip_serializing_if = "Option::is_none")]
+    pub label: Option<String>,
+    /// The label's handle.
+    #[serde(skip_serializing_if = "Option::is_none")]
+    pub label_handle: Option<String>,
+    /// The load line's or block's handle.
+    #[serde(skip_serializing_if = "Option::is_none")]
+    pub handle: Option<String>,
+}
+
+/// What `inspect` shows.
+#[derive(Clone, Debug, PartialEq, Serialize)]
+pub struct Inspection {
+    /// The input.
+    pub input: InputOut,
+    /// Units of every number.
+    pub units: Units,
+    /// The drawing's layers.
+    pub layers: Vec<String>,
+    /// The supports, left then right.
+    pub supports: Vec<SupportRead>,
+    /// The loads, left to right.
+    pub loads: Vec<LoadReadOut>,
+    /// Sum of the load magnitudes.
+    pub total_load: f64,
+    /// Number of deck segments (after flattening arcs).
+    pub deck_segments: usize,
+    /// The drawing's model-space extents [x0, y0, x1, y1].
+    #[serde(skip_serializing_if = "Option::is_none")]
+    pub extents: Option<[f64; 4]>,
+    /// Warnings.
+    pub warnings: Vec<String>,
+}
+
+/// Builds what `inspect` shows.
+#[must_use]
+pub fn inspection(input: &str, reading: &Reading) -> Inspection {
+    let st = &reading.structure;
+    let supports = [st.left(), st.right()]
+        .into_iter()
+        .map(|s| {
+            let o = s.origin();
+            match s {
+                Support::Point { at, .. } => SupportRead {
+                    kind: "point",
+                    x: at.x,
+                    y: Some(at.y),
+                    axis: None,
+                    handle: o.handle.clone(),
+                    layer: o.layer.clone(),
+                },
+                Support::Axis { x, foot, top, .. } => SupportRead {
+                    kind: "tower-axis",
+                    x: *x,
+                    y: None,
+                    axis: Some([*foot, *top]),
+                    handle: o.handle.clone(),
+                    layer: o.layer.clone(),
+                },
+            }
+        })
+        .collect();
+    Inspection {
+        input: InputOut {
+            file: input.to_string(),
+            version: reading.release.name(),
+            binary: reading.binary,
+            length_unit_from: reading.length_source.clone(),
+            force_unit_from: reading.force_source.clone(),
+        },
+        units: st.units(),
+        layers: reading.layers.clone(),
+        supports,
+        loads: reading
+            .loads
+            .iter()
+            .map(|l| LoadReadOut {
+                at: l.anchor.into(),
+                force: l.force.into(),
+                magnitude: l.force.hypot(),
+                written: l.value,
+                written_unit: l.unit,
+                label: l.label.clone(),
+                label_handle: l.label_origin.as_ref().and_then(|o| o.handle.clone()),
+                handle: l.origin.handle.clone(),
+            })
+            .collect(),
+        total_load: st.loads().iter().map(|l| l.magnitude()).sum(),
+        deck_segments: st.deck().map_or(0, |d| d.segments.len()),
+        extents: reading.extents.map(|r| [r.x0, r.y0, r.x1, r.y1]),
+        warnings: reading.warnings.clone(),
+    }
+}
