@@ -181,7 +181,7 @@ pub struct Structure {
 pub enum ModelError {
     /// Not exactly two supports.
     #[error(
-        "found {found} supports on layer {layer}, need exactly 2: {detail}; draw one POINT, CIRCLE, INSERT or vertical LINE (tower axis) at each end of the span"
+        "found {found} support(s) on layer {layer}, need exactly 2: {detail}; draw one POINT, CIRCLE, INSERT or vertical LINE (tower axis) at each end of the span"
     )]
     SupportCount {
         /// How many were found.
@@ -444,7 +444,7 @@ mod tests {
         )
         .unwrap_err();
         let m = e.to_string();
-        assert!(m.contains("found 3 supports on layer SUPPORTS"), "{m}");
+        assert!(m.contains("found 3 support(s) on layer SUPPORTS"), "{m}");
         assert!(m.contains("entity 1F"), "{m}");
     }
 

@@ -25,6 +25,19 @@ fn text(at: Point, height: f64, content: String, h: HAlign, v: VAlign) -> Shape 
     Shape::Text(Text { at, height, rotation: 0.0, content, h, v })
 }
 
+/// The scale in words, with a round drawing length that stands for at
+/// least one force unit: "1 m = 20 kN", "100 mm = 5 kN".
+#[must_use]
+pub fn scale_words(scale: f64, units: crate::units::Units) -> String {
+    let mut length = 1.0;
+    while length * scale < 1.0 && length < 1e9 {
+        length *= 10.0;
+    }
+    let force = length * scale;
+    let force = if force.fract() == 0.0 { format!("{force:.0}") } else { format!("{}", (force * 1e6).round() / 1e6) };
+    format!("{length:.0} {} = {force} {}", units.length, units.force)
+}
+
 pub(super) fn diagram_items(
     structure: &Structure,
     s: &Solution,
@@ -86,8 +99,7 @@ pub(super) fn diagram_items(
     let diagram_box = Rect::from_points(map(Point::new(fbox.x0, fbox.y0)), map(Point::new(fbox.x1, fbox.y1)));
     let x0 = diagram_box.x0;
     let th_title = 1.2 * th;
-    let scale_text =
-        format!("FORCE DIAGRAM   1 {} = {}", units.length, fmt_force(scale, units.force).replace(".000", ""));
+    let scale_text = format!("FORCE DIAGRAM   {}", scale_words(scale, units));
     items.push(item(
         Role::Diagram,
         text(Point::new(x0, diagram_box.y1 + 2.5 * th), th_title, scale_text, HAlign::Left, VAlign::Bottom),
@@ -133,4 +145,19 @@ pub(super) fn diagram_items(
         items.push(item(Role::Notes, text(Point::new(x0, y), 0.8 * th, line, HAlign::Left, VAlign::Top)));
     }
     (items, Placement { force_scale: scale, diagram_at: at, text_height: th })
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+    use crate::units::{ForceUnit, LengthUnit, Units};
+
+    #[test]
+    fn scale_in_words() {
+        let m = Units { length: LengthUnit::Metre, force: ForceUnit::Kilonewton };
+        assert_eq!(scale_words(20.0, m), "1 m = 20 kN");
+        let mm = Units { length: LengthUnit::Millimetre, force: ForceUnit::Kilonewton };
+        assert_eq!(scale_words(0.05, mm), "100 mm = 5 kN");
+        assert_eq!(scale_words(0.025, mm), "100 mm = 2.5 kN");
+    }
 }

@@ -119,7 +119,8 @@ pub(super) fn form_items(structure: &Structure, s: &Solution, th: f64, dim: &Dim
         let at = Point::new(x, profile_y(nodes, x) + load_side * 2.5 * th);
         items.push(item(Role::Bow, text(at, lh, 0.0, space_letter(k), HAlign::Center, VAlign::Middle)));
     }
-    let pole_at = Point::new(s.sag.x, (s.sag.chord_y + s.sag.profile_y) / 2.0);
+    // Beside the sag dimension (drawn to the right of sag.x), not on it.
+    let pole_at = Point::new(s.sag.x - 1.5 * th, (s.sag.chord_y + s.sag.profile_y) / 2.0);
     items.push(item(Role::Bow, text(pole_at, lh, 0.0, space_letter(pole_space), HAlign::Center, VAlign::Middle)));
 
     // Dimensions.

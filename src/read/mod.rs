@@ -286,7 +286,7 @@ pub fn read(file: &File<'_>, options: &ReadOptions) -> Result<Reading, ReadError
             }
             Drawn::Text(t) => {
                 let plain = if t.mtext { mtext::plain_mtext(&t.raw) } else { mtext::plain_text(&t.raw) };
-                let plain = plain.split_whitespace().collect::<Vec<_>>().join(" ");
+                let plain = label_line(&plain);
                 let id = texts.len();
                 let o = Origin { at: t.centre, ..o };
                 texts.push((LabelText::new(id, t.centre, plain), o));
@@ -409,6 +409,19 @@ pub fn read(file: &File<'_>, options: &ReadOptions) -> Result<Reading, ReadError
     })
 }
 
+/// The text of a label: of a multi-line MTEXT, the one line that reads as
+/// a force (the others are notes, such as "hanger load" above "30 kN");
+/// otherwise all of it on one line.
+fn label_line(plain: &str) -> String {
+    let lines: Vec<String> =
+        plain.lines().map(|l| l.split_whitespace().collect::<Vec<_>>().join(" ")).filter(|l| !l.is_empty()).collect();
+    let forces: Vec<&String> = lines.iter().filter(|l| parse_force(l).is_ok()).collect();
+    match forces.as_slice() {
+        [one] if lines.len() > 1 => (*one).clone(),
+        _ => lines.join(" "),
+    }
+}
+
 /// A load line or block before its magnitude is known.
 struct LoadItem {
     shape: LoadShape,
@@ -472,7 +485,7 @@ fn label_message(e: &AssignError, items: &[LoadItem], texts: &[(LabelText, Origi
             line(*l)
         ),
         AssignError::Ambiguous { line: l, label, other_line, distance, other_distance } => format!(
-            "the label {} is about as near to {} ({}) as to {} ({}); move it closer to the line it belongs to",
+            "the label {} is about as near to {} (distance {}) as to {} (distance {}); move it closer to the line it belongs to",
             text(*label),
             line(*l),
             fmt_num(*distance),
@@ -498,7 +511,8 @@ fn check_finite(d: &Drawn, o: &Origin) -> Result<(), ReadError> {
                 return Err(ReadError::Geometry {
                     origin: format!("entity {} on layer {}", o.handle.as_deref().unwrap_or("without handle"), o.layer),
                     problem: format!(
-                        "a coordinate is {v} (near {}); coordinates must be finite and below 1e12: fix or redraw the entity",
+                        "a coordinate is {} (near {}); coordinates must be finite and below 1e12: fix or redraw the entity",
+                        fmt_num(v),
                         fmt_xy(Point::new(clean(p.x), clean(p.y)))
                     ),
                 });

@@ -85,7 +85,7 @@ pub struct ReadArgs {
     pub label_unit: String,
     /// Take each load line's magnitude from its length: force per drawing
     /// unit, e.g. "10 kN" (labels are then ignored).
-    #[arg(long, value_name = "FORCE")]
+    #[arg(long, value_name = "FORCE", allow_hyphen_values = true)]
     pub load_scale: Option<String>,
 }
 
@@ -104,34 +104,34 @@ pub struct SolveArgs {
     #[arg(long)]
     pub arch: bool,
     /// The profile passes through this point (drawing coordinates); repeatable.
-    #[arg(long, value_name = "X,Y")]
+    #[arg(long, value_name = "X,Y", allow_hyphen_values = true)]
     pub through: Vec<String>,
     /// The horizontal force at the left support, e.g. 450 or "450 kN".
-    #[arg(long, value_name = "FORCE")]
+    #[arg(long, value_name = "FORCE", allow_hyphen_values = true)]
     pub thrust: Option<String>,
     /// The cable's sag: the largest vertical distance from the chord between
     /// the supports to the profile, e.g. 6 or "6 m".
-    #[arg(long, value_name = "LENGTH")]
+    #[arg(long, value_name = "LENGTH", allow_hyphen_values = true)]
     pub sag: Option<String>,
     /// The arch's rise above the chord between the supports (with --arch).
-    #[arg(long, value_name = "LENGTH")]
+    #[arg(long, value_name = "LENGTH", allow_hyphen_values = true)]
     pub rise: Option<String>,
     /// The largest force in any segment.
-    #[arg(long, value_name = "FORCE")]
+    #[arg(long, value_name = "FORCE", allow_hyphen_values = true)]
     pub max_force: Option<String>,
     /// The profile is level (its low point, or an arch's crown) at this x.
-    #[arg(long, value_name = "X")]
+    #[arg(long, value_name = "X", allow_hyphen_values = true)]
     pub level_at: Option<String>,
     /// Force diagram scale: force per drawing unit, e.g. "10 kN" (default:
     /// a round scale that fits).
-    #[arg(long, value_name = "FORCE")]
+    #[arg(long, value_name = "FORCE", allow_hyphen_values = true)]
     pub force_scale: Option<String>,
     /// Where to draw the top of the force diagram's load line (default:
     /// beside the drawing).
-    #[arg(long, value_name = "X,Y")]
+    #[arg(long, value_name = "X,Y", allow_hyphen_values = true)]
     pub diagram_at: Option<String>,
     /// Text height for annotations, drawing units (default: from the span).
-    #[arg(long, value_name = "LENGTH")]
+    #[arg(long, value_name = "LENGTH", allow_hyphen_values = true)]
     pub text_height: Option<f64>,
     /// Allow the output to replace the input file.
     #[arg(long)]
