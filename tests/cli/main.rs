@@ -1,6 +1,8 @@
 //! The command line, run on the drawings in fixtures/: one test binary for
 //! all of it.
 
+#![allow(clippy::print_stderr, missing_docs)]
+
 mod bad;
 mod behaviour;
 mod cases;
