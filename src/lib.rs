@@ -17,6 +17,29 @@
 //! * [`write`] splices those shapes into a copy of the input's bytes, keeping
 //!   every byte of the user's drawing.
 //! * [`report`] is the machine-readable summary.
+//! * [`pipeline`] runs the stages in order on one drawing's bytes.
+//!
+//! ```
+//! use hangline::pipeline::{Given, Job, run};
+//! use hangline::solve::Form;
+//!
+//! // Beer & Johnston, Vector Mechanics for Engineers: Statics, Prob. 7.116:
+//! // the cable through (4, −3.6) ft carries its loads with H = 850 lb.
+//! let drawing = std::fs::read("fixtures/bj7116-ft-r2000.dxf")?;
+//! let job = Job {
+//!     read: Default::default(),
+//!     form: Form::Cable,
+//!     given: vec![Given::Through(4.0, -3.6)],
+//!     layout: Default::default(),
+//!     force_scale: None,
+//!     layers: Default::default(),
+//! };
+//! let mut output = Vec::new();
+//! let outcome = run(&drawing, &job, &mut output)?;
+//! assert!((outcome.solution.thrust - 850.0).abs() < 1e-9);
+//! assert!(output.len() > drawing.len());
+//! # Ok::<(), Box<dyn std::error::Error>>(())
+//! ```
 
 pub mod dxf;
 pub mod error;

@@ -554,3 +554,112 @@ impl Ignored {
         }
     }
 }
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    /// A minimal R12 drawing: entities only, no tables.
+    fn drawing(entities: &str) -> String {
+        format!(
+            "0\nSECTION\n2\nHEADER\n9\n$ACADVER\n1\nAC1009\n0\nENDSEC\n0\nSECTION\n2\nENTITIES\n{entities}0\nENDSEC\n0\nEOF\n"
+        )
+    }
+
+    fn point(x: f64, y: f64) -> String {
+        format!("0\nPOINT\n8\nSUPPORTS\n10\n{x}\n20\n{y}\n")
+    }
+
+    fn line(layer: &str, a: (f64, f64), b: (f64, f64)) -> String {
+        format!("0\nLINE\n8\n{layer}\n10\n{}\n20\n{}\n11\n{}\n21\n{}\n", a.0, a.1, b.0, b.1)
+    }
+
+    fn text(at: (f64, f64), s: &str) -> String {
+        format!("0\nTEXT\n8\nLOADS\n10\n{}\n20\n{}\n40\n0.2\n1\n{s}\n", at.0, at.1)
+    }
+
+    fn read_str(dxf: &str, options: &ReadOptions) -> Result<Reading, ReadError> {
+        let file = File::scan(dxf.as_bytes(), &scan_options(&options.layers, std::iter::empty())).expect("scans");
+        read(&file, options)
+    }
+
+    fn two_loads(labels: [&str; 2]) -> String {
+        drawing(
+            &[
+                point(0.0, 0.0),
+                point(10.0, 0.0),
+                line("LOADS", (3.0, 1.0), (3.0, 3.0)),
+                text((3.2, 2.5), labels[0]),
+                line("LOADS", (7.0, 1.0), (7.0, 2.0)),
+                text((7.2, 1.5), labels[1]),
+            ]
+            .concat(),
+        )
+    }
+
+    #[test]
+    fn labels_without_a_unit_take_the_label_unit() {
+        let options = ReadOptions { label_unit: ForceUnit::Kip, ..ReadOptions::default() };
+        let r = read_str(&two_loads(["12", "3 kip"]), &options).unwrap();
+        assert_eq!(r.structure.units().force, ForceUnit::Kip);
+        assert_eq!(r.structure.loads()[0].force, Vec2::new(0.0, -12.0));
+        assert!(r.warnings.iter().any(|w| w.contains("no unit")), "{:?}", r.warnings);
+        // No $INSUNITS in R12: metres, said so.
+        assert_eq!(r.structure.units().length, LengthUnit::Metre);
+        assert!(r.warnings.iter().any(|w| w.contains("no $INSUNITS")));
+    }
+
+    #[test]
+    fn mixed_label_units_give_kilonewtons() {
+        let r = read_str(&two_loads(["12 kN", "900 lbf"]), &ReadOptions::default()).unwrap();
+        assert_eq!(r.structure.units().force, ForceUnit::Kilonewton);
+        // NIST SP 811 (2008): 1 lbf = 4.448 221 615 260 5 N.
+        let w = -r.structure.loads()[1].force.y;
+        assert!((w - 0.9 * 4.448_221_615_260_5).abs() < 1e-12, "{w}");
+    }
+
+    #[test]
+    fn load_scale_reads_magnitudes_from_line_lengths() {
+        let options = ReadOptions { load_scale: Some((10.0, ForceUnit::Kilonewton)), ..ReadOptions::default() };
+        let r = read_str(&two_loads(["not a load", "neither"]), &options).unwrap();
+        let w: Vec<f64> = r.structure.loads().iter().map(|l| -l.force.y).collect();
+        assert_eq!(w, [20.0, 10.0]);
+        assert!(r.warnings.iter().any(|w| w.contains("not a load")), "labels are ignored, and said so");
+    }
+
+    #[test]
+    fn an_inclined_line_acts_toward_its_lower_end() {
+        let dxf = drawing(
+            &[point(0.0, 0.0), point(10.0, 0.0), line("LOADS", (4.0, 1.0), (5.0, 3.0)), text((5.3, 2.5), "5 kN")]
+                .concat(),
+        );
+        let r = read_str(&dxf, &ReadOptions::default()).unwrap();
+        let f = r.structure.loads()[0].force;
+        // Along (−1, −2)/√5 times 5 kN.
+        assert!((f.x - -5.0 / 5f64.sqrt()).abs() < 1e-12 && (f.y - -10.0 / 5f64.sqrt()).abs() < 1e-12, "{f:?}");
+    }
+
+    #[test]
+    fn a_vertical_support_line_is_a_tower_axis() {
+        let dxf = drawing(
+            &[
+                line("SUPPORTS", (0.0, 0.0), (0.0, 12.0)),
+                point(10.0, 3.0),
+                line("LOADS", (5.0, 1.0), (5.0, 2.0)),
+                text((5.2, 1.5), "5 kN"),
+            ]
+            .concat(),
+        );
+        let r = read_str(&dxf, &ReadOptions::default()).unwrap();
+        assert!(
+            matches!(r.structure.left(), Support::Axis { x, foot, top, .. } if *x == 0.0 && *foot == 0.0 && *top == 12.0)
+        );
+    }
+
+    #[test]
+    fn a_multiline_mtext_label_takes_its_force_line() {
+        assert_eq!(label_line("hanger H4\n30 kN"), "30 kN");
+        assert_eq!(label_line("30 kN\n45 kN"), "30 kN 45 kN");
+        assert_eq!(label_line("  85   kN "), "85 kN");
+    }
+}

@@ -158,3 +158,44 @@ fn the_dxf_crate_reads_the_output() {
     assert!(matches!(profiles[0].specific, dxf::entities::EntityType::LwPolyline(_)));
     assert!(drawing.layers().any(|l| l.name == "HANGLINE-FORCE-DIAGRAM"));
 }
+
+/// Unit and layout flags reach the report: forces in N, the force scale
+/// and the diagram's place as given, magnitudes from line lengths.
+#[test]
+fn unit_and_layout_flags() {
+    let dir = temp();
+    let solve = |extra: &[&str]| {
+        let report = dir.path().join("r.json");
+        let mut args = vec![
+            "solve".to_string(),
+            fixture("footbridge-m-r2018.dxf").display().to_string(),
+            "-o".into(),
+            dir.path().join("o.dxf").display().to_string(),
+            "--report".into(),
+            report.display().to_string(),
+            "-q".into(),
+        ];
+        args.extend(extra.iter().map(|s| s.to_string()));
+        hangline(&args).ok();
+        json(&report)
+    };
+    let kn = solve(&["--sag", "4.5"]);
+    let n = solve(&["--sag", "4.5", "--force-unit", "N"]);
+    assert_eq!(n["units"]["force"], "N");
+    let (h_kn, h_n) = (kn["thrust"].as_f64().unwrap_or(0.0), n["thrust"].as_f64().unwrap_or(0.0));
+    assert!((h_n - 1000.0 * h_kn).abs() < 1e-9 * h_n, "{h_n} vs {h_kn}");
+    // A sag in millimetres on a drawing in metres.
+    let mm = solve(&["--sag", "4500 mm"]);
+    assert_eq!(mm["nodes"], kn["nodes"]);
+    // A thrust in MN, the force scale and the diagram's place.
+    let placed = solve(&["--thrust", "0.3 MN", "--force-scale", "25 kN", "--diagram-at", "100,-20"]);
+    assert!((placed["thrust"].as_f64().unwrap_or(0.0) - 300.0).abs() < 1e-9);
+    assert_eq!(placed["force_diagram"]["scale"], 25.0);
+    assert_eq!(placed["force_diagram"]["at"]["x"], 100.0);
+    assert_eq!(placed["force_diagram"]["at"]["y"], -20.0);
+    // Every load line of this drawing is 1.5 m long: 15 kN each at 10 kN/m.
+    let scaled = solve(&["--sag", "4.5", "--load-scale", "10 kN"]);
+    for l in scaled["loads"].as_array().expect("loads") {
+        assert!((l["magnitude"].as_f64().unwrap_or(0.0) - 15.0).abs() < 1e-9, "{l}");
+    }
+}

@@ -1,0 +1,83 @@
+#!/usr/bin/env python3
+"""Writes the demo drawing demo-drawings/ambermoor-footbridge.dxf with ezdxf.
+
+An invented scenario: a 42 m suspension footbridge over the Kestrel Water at
+Ambermoor (an invented place), its east bank higher than the west. Nine
+hangers at unequal spacing carry the deck; the hanger at the viewing bay
+carries more. All numbers are invented for the demo.
+
+    python tools/demo/make_demo.py            # writes the demo drawing
+"""
+
+import os
+import sys
+
+# Repeatable output: ezdxf orders some objects by Python's string hashing.
+if os.environ.get("PYTHONHASHSEED") != "0":
+    os.environ["PYTHONHASHSEED"] = "0"
+    os.execv(sys.executable, [sys.executable] + sys.argv)
+
+import ezdxf
+from ezdxf.enums import TextEntityAlignment
+
+# Fixed dates and GUIDs, so that writing again gives the same bytes.
+ezdxf.options.write_fixed_meta_data_for_testing = True
+
+HERE = os.path.dirname(os.path.abspath(__file__))
+OUT = os.path.join(HERE, "..", "..", "demo-drawings", "ambermoor-footbridge.dxf")
+
+
+def main() -> int:
+    doc = ezdxf.new("R2013", setup=True)
+    doc.header["$INSUNITS"] = 6  # metres
+    for name, colour in [("SUPPORTS", 1), ("LOADS", 3), ("DECK", 5), ("STRUCTURE", 8), ("GROUND", 52), ("TITLE", 7)]:
+        doc.layers.add(name, color=colour)
+    msp = doc.modelspace()
+
+    # Saddles on the tower tops: the cable's fixed points.
+    west, east = (0.0, 9.0), (42.0, 11.5)
+    msp.add_point(west, dxfattribs={"layer": "SUPPORTS"})
+    msp.add_circle(east, 0.15, dxfattribs={"layer": "SUPPORTS"})
+
+    # Towers and ground, for the picture only.
+    for (x, top), foot in [(west, 0.0), (east, 2.5)]:
+        msp.add_lwpolyline([(x - 0.3, foot), (x - 0.15, top), (x + 0.15, top), (x + 0.3, foot)],
+                           dxfattribs={"layer": "STRUCTURE"})
+    ground = [(-6.0, 0.0), (3.0, 0.0), (8.0, -2.5), (33.0, -2.8), (38.0, 2.5), (48.0, 2.5)]
+    msp.add_lwpolyline(ground, dxfattribs={"layer": "GROUND"})
+    hatch = msp.add_hatch(color=52, dxfattribs={"layer": "GROUND"})
+    hatch.set_pattern_fill("EARTH", scale=0.4)
+    hatch.paths.add_polyline_path(ground + [(48.0, -5.0), (-6.0, -5.0)], is_closed=True)
+    msp.add_text("Kestrel Water", height=0.4, dxfattribs={"layer": "GROUND"}).set_placement(
+        (20.5, -2.3), align=TextEntityAlignment.BOTTOM_CENTER)
+
+    # The deck: a gentle crest over the water.
+    deck = [(-2.0, 2.0), (10.0, 2.5), (21.0, 2.8), (32.0, 2.7), (44.0, 2.6)]
+    msp.add_lwpolyline(deck, dxfattribs={"layer": "DECK"})
+
+    def deck_y(x):
+        for (x0, y0), (x1, y1) in zip(deck, deck[1:]):
+            if x0 <= x <= x1:
+                return y0 + (y1 - y0) * (x - x0) / (x1 - x0)
+        raise ValueError(x)
+
+    # Hanger loads (deck, people and the viewing bay), drawn as short lines
+    # up from the deck with their labels.
+    hangers = [(4.0, "14 kN"), (8.5, "18 kN"), (13.0, "18 kN"), (17.5, "18 kN"), (22.0, "P = 26 kN"),
+               (26.5, "18 kN"), (31.0, "18 kN"), (35.5, "16.5kN"), (39.0, "14 kN")]
+    for x, label in hangers:
+        y = deck_y(x)
+        msp.add_line((x, y), (x, y + 1.2), dxfattribs={"layer": "LOADS"})
+        msp.add_text(label, height=0.3, dxfattribs={"layer": "LOADS"}).set_placement((x + 0.2, y + 0.9))
+
+    msp.add_text("AMBERMOOR FOOTBRIDGE - GENERAL ARRANGEMENT (invented example)", height=0.6,
+                 dxfattribs={"layer": "TITLE"}).set_placement((-6.0, 16.0))
+    msp.add_text("Hanger loads: deck, surfacing and crowd; viewing bay at x = 22 m", height=0.35,
+                 dxfattribs={"layer": "TITLE"}).set_placement((-6.0, 15.0))
+
+    doc.saveas(OUT)
+    return 0
+
+
+if __name__ == "__main__":
+    sys.exit(main())
