@@ -310,8 +310,7 @@ impl Structure {
         }
         let mut supports = supports;
         supports.sort_by(|a, b| a.x().total_cmp(&b.x()));
-        let right = supports.pop().expect("two supports checked above");
-        let left = supports.pop().expect("two supports checked above");
+        let Ok([left, right]) = <[Support; 2]>::try_from(supports) else { unreachable!("the count was checked above") };
         if left.x() == right.x() {
             return Err(ModelError::SameX {
                 a: left.origin().to_string(),

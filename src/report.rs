@@ -50,6 +50,18 @@ impl From<kurbo::Vec2> for Xy {
     }
 }
 
+impl InputOut {
+    fn new(input: &str, reading: &Reading) -> InputOut {
+        InputOut {
+            file: input.to_string(),
+            version: reading.release.name(),
+            binary: reading.binary,
+            length_unit_from: reading.length_source.clone(),
+            force_unit_from: reading.force_source.clone(),
+        }
+    }
+}
+
 /// A support in the report.
 #[derive(Clone, Debug, PartialEq, Serialize)]
 pub struct SupportOut {
@@ -245,13 +257,7 @@ pub fn report(input: &str, reading: &Reading, solution: &Solution, placement: Op
     Report {
         tool: format!("hangline {}", env!("CARGO_PKG_VERSION")),
         caution: CAUTION,
-        input: InputOut {
-            file: input.to_string(),
-            version: reading.release.name(),
-            binary: reading.binary,
-            length_unit_from: reading.length_source.clone(),
-            force_unit_from: reading.force_source.clone(),
-        },
+        input: InputOut::new(input, reading),
         structure: solution.form.to_string(),
         units: st.units(),
         thrust: solution.thrust,
@@ -404,13 +410,7 @@ pub fn inspection(input: &str, reading: &Reading) -> Inspection {
         })
         .collect();
     Inspection {
-        input: InputOut {
-            file: input.to_string(),
-            version: reading.release.name(),
-            binary: reading.binary,
-            length_unit_from: reading.length_source.clone(),
-            force_unit_from: reading.force_source.clone(),
-        },
+        input: InputOut::new(input, reading),
         units: st.units(),
         layers: reading.layers.clone(),
         supports,

@@ -7,7 +7,7 @@
 
 use kurbo::{Line, Point, Rect, Vec2};
 
-use super::nice::{fmt_force, fmt_length, member_name, round_down, round_up, space_letter};
+use super::nice::{fmt_force, round_down, round_up, space_letter};
 use super::shapes::{HAlign, Item, Role, Shape, Text, VAlign};
 use super::{LayoutOptions, Placement};
 use crate::model::Structure;
@@ -122,24 +122,8 @@ pub(super) fn diagram_items(
         Form::Cable => "CABLE (pure tension)",
         Form::Arch => "ARCH (pure compression)",
     };
-    let word = match s.form {
-        Form::Cable => "sag",
-        Form::Arch => "rise",
-    };
-    let notes = [
-        format!("hangline: funicular {form}, {} loads", n),
-        format!(
-            "H = {}   largest force {} in {}   {word} {} {}   span {} {}",
-            fmt_force(s.thrust, units.force),
-            fmt_force(s.max_force(), units.force),
-            member_name(s.max_segment, pole_space),
-            fmt_length(s.sag.value, units.length),
-            units.length,
-            fmt_length(structure.span(), units.length),
-            units.length,
-        ),
-        CAUTION.to_string(),
-    ];
+    let notes =
+        [format!("hangline: funicular {form}, {} loads", n), super::result_line(structure, s), CAUTION.to_string()];
     for (i, line) in notes.into_iter().enumerate() {
         let y = yb - 3.5 * th - i as f64 * 1.6 * th;
         items.push(item(Role::Notes, text(Point::new(x0, y), 0.8 * th, line, HAlign::Left, VAlign::Top)));

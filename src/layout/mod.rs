@@ -48,6 +48,30 @@ pub fn text_height_for(span: f64) -> f64 {
     nice::round_down(span / 60.0)
 }
 
+/// The result in one line: thrust, largest force and where, sag or rise and
+/// where, profile length — for the drawing's notes and the command's summary.
+#[must_use]
+pub fn result_line(structure: &Structure, solution: &Solution) -> String {
+    let u = structure.units();
+    let word = match solution.form {
+        crate::solve::Form::Cable => "sag",
+        crate::solve::Form::Arch => "rise",
+    };
+    format!(
+        "H = {}; largest force {} in {}; {word} {} {} at x = {}; span {} {}; length {} {}",
+        nice::fmt_force(solution.thrust, u.force),
+        nice::fmt_force(solution.max_force(), u.force),
+        nice::member_name(solution.max_segment, structure.loads().len() + 1),
+        nice::fmt_length(solution.sag.value, u.length),
+        u.length,
+        nice::fmt_length(solution.sag.x, u.length),
+        nice::fmt_length(structure.span(), u.length),
+        u.length,
+        nice::fmt_length(solution.length(), u.length),
+        u.length,
+    )
+}
+
 /// Lays out everything the tool adds for `solution`, beside `extents` (the
 /// user's drawing, when known).
 #[must_use]

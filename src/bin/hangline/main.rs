@@ -13,6 +13,7 @@ use clap::Parser;
 
 use args::{Cli, Command, InspectArgs, SolveArgs};
 use hangline::layout::nice::{fmt_force, fmt_length, member_name};
+use hangline::layout::result_line;
 use hangline::pipeline;
 use hangline::report::{CAUTION, inspection, report};
 
@@ -144,22 +145,7 @@ fn solve(a: &SolveArgs) -> Result<()> {
         })
         .collect();
     say(q, &format!("solved  {} with {}", s.form, conds.join(", ")));
-    let pole = st.loads().len() + 1;
-    let word = if s.form == hangline::solve::Form::Cable { "sag" } else { "rise" };
-    say(
-        q,
-        &format!(
-            "        H = {}; largest force {} in {}; {word} {} {} at x = {}; length {} {}",
-            fmt_force(s.thrust, u.force),
-            fmt_force(s.max_force(), u.force),
-            member_name(s.max_segment, pole),
-            fmt_length(s.sag.value, u.length),
-            u.length,
-            fmt_length(s.sag.x, u.length),
-            fmt_length(s.length(), u.length),
-            u.length,
-        ),
-    );
+    say(q, &format!("        {}", result_line(st, s)));
     for t in &s.towers {
         say(
             q,
