@@ -97,16 +97,17 @@ pub(super) fn form_items(structure: &Structure, s: &Solution, th: f64, dim: &Dim
         items.push(item(Role::Forces, text(at, fh, angle, content, HAlign::Center, VAlign::Middle)));
     }
 
-    // Reactions, outside the span at each support.
+    // Reactions above each support, reading outward from the span (clear
+    // of a tower's height dimension, which stands beside the axis below).
     for (side, r) in s.reactions.iter().enumerate() {
         let node = if side == 0 { nodes[0] } else { nodes[nodes.len() - 1] };
-        let (dx, h) = if side == 0 { (-th, HAlign::Right) } else { (th, HAlign::Left) };
+        let (dx, h) = if side == 0 { (-0.5 * th, HAlign::Right) } else { (0.5 * th, HAlign::Left) };
         let lines = [
             format!("R = {}", fmt_force(r.hypot(), units.force)),
             format!("H {}  V {}", fmt_force(r.x.abs(), units.force), fmt_force(r.y, units.force)),
         ];
         for (i, l) in lines.into_iter().enumerate() {
-            let at = node + Vec2::new(dx, -(i as f64) * 1.5 * fh);
+            let at = node + Vec2::new(dx, (2.0 - i as f64) * 1.5 * fh);
             items.push(item(Role::Forces, text(at, fh, 0.0, l, h, VAlign::Middle)));
         }
     }
