@@ -296,12 +296,19 @@ pub fn write(
     let entities_end = file.entities_end.ok_or_else(|| WriteError::Structure("it has no ENTITIES section".into()))?;
     push(entities_end..entities_end, pen.enc.take());
 
-    // $HANDSEED last, once every handle is taken.
-    if let (Some(seed), Some(var)) = (handles.seed(), seed_var)
-        && let Some((_, span)) = var.values.first()
-    {
-        let enc = Encoder::for_file(file);
-        push(span.clone(), enc.value_text(&format!("{seed:X}")));
+    // $HANDSEED last, once every handle is taken; added to the header when
+    // a drawing with handles lacks it.
+    if let Some(seed) = handles.seed() {
+        let mut enc = Encoder::for_file(file);
+        match seed_var.and_then(|v| v.values.first()) {
+            Some((_, span)) => push(span.clone(), enc.value_text(&format!("{seed:X}"))),
+            None => {
+                if let Some(end) = file.header_end {
+                    enc.text(9, "$HANDSEED").handle(5, seed);
+                    push(end..end, enc.take());
+                }
+            }
+        }
     }
 
     splice(file.bytes, edits, out)?;
@@ -341,6 +348,63 @@ mod tests {
         let mut out = Vec::new();
         splice(src, edits, &mut out).unwrap();
         assert_eq!(out, b"01bc5678X");
+    }
+
+    use crate::dxf::{File, ScanOptions};
+    use crate::layout::{DimStyle, Item};
+    use kurbo::{Line, Point};
+
+    const R12: &str = "0\nSECTION\n2\nHEADER\n9\n$ACADVER\n1\nAC1009\n0\nENDSEC\n\
+0\nSECTION\n2\nTABLES\n0\nTABLE\n2\nLAYER\n70\n1\n0\nLAYER\n5\n10\n2\n0\n70\n0\n62\n7\n6\nCONTINUOUS\n0\nENDTAB\n0\nENDSEC\n\
+0\nSECTION\n2\nENTITIES\n0\nLINE\n5\n2F\n8\nLOADS\n10\n1.0\n20\n0.0\n11\n1.0\n21\n2.0\n0\nENDSEC\n0\nEOF\n";
+
+    fn additions() -> Additions {
+        let line = Shape::Line(Line::new(Point::new(0.0, 0.0), Point::new(1.0, 1.0)));
+        Additions {
+            items: vec![Item { role: Role::Profile, shape: line, colour: None }],
+            dim_style: DimStyle {
+                text_height: 0.2,
+                arrow: 0.2,
+                ext_offset: 0.05,
+                ext_extend: 0.1,
+                gap: 0.05,
+                decimals: 2,
+            },
+        }
+    }
+
+    fn write_str(src: &str) -> String {
+        let layers = OutputLayers::default();
+        let options =
+            ScanOptions { keep_layers: layers.all().map(String::from).collect(), skip_extents_layers: vec![] };
+        let file = File::scan(src.as_bytes(), &options).unwrap();
+        let mut out = Vec::new();
+        write(&file, &additions(), &layers, &mut out).unwrap();
+        String::from_utf8(out).unwrap()
+    }
+
+    #[test]
+    fn the_input_survives_and_handles_continue() {
+        let out = write_str(R12);
+        // The header, the layer record and the user's line, byte for byte.
+        for part in [&R12[..R12.find("0\nENDSEC").unwrap()], "0\nLAYER\n5\n10\n2\n0\n70\n0\n62\n7\n6\nCONTINUOUS\n"] {
+            assert!(out.contains(part), "lost: {part}");
+        }
+        assert!(out.contains("0\nLINE\n5\n2F\n8\nLOADS\n10\n1.0\n20\n0.0\n11\n1.0\n21\n2.0\n"));
+        // The drawing had handles but no $HANDSEED: new handles follow the
+        // largest (2F), and the seed is recorded.
+        assert!(out.contains("  5\n30\n"), "{out}");
+        assert!(out.contains("$HANDSEED\n  5\n"), "{out}");
+        // Seven layers added, count raised from 1 to 8.
+        assert!(out.contains("LAYER\n70\n     8\n"), "{out}");
+    }
+
+    #[test]
+    fn a_second_run_replaces_the_first() {
+        let once = write_str(R12);
+        let twice = write_str(&once);
+        assert_eq!(once.matches("HANGLINE-PROFILE").count(), twice.matches("HANGLINE-PROFILE").count());
+        assert_eq!(twice.matches("\nLINE\n").count(), 2, "the user's line and one profile line");
     }
 
     #[test]
