@@ -400,6 +400,9 @@ fn usable(v: f64) -> bool {
     v.is_finite() && v.abs() < crate::model::LIMIT
 }
 
+/// How many lines at one distance from a text are looked at.
+const MAX_TIES: usize = 16;
+
 /// An R*-tree over the load lines (the `rstar` crate, which geo uses too).
 struct Tree(rstar::RTree<Item>);
 
@@ -426,8 +429,10 @@ impl Tree {
         for (item, d2) in self.0.nearest_neighbor_iter_with_distance_2(&[p.x, p.y]) {
             let d = d2.sqrt();
             // Keep going past the second only while distances tie, so that
-            // the tie-break by input order is exact.
-            if hits.len() >= 2 && d > hits[1].d {
+            // the tie-break by input order is exact — up to a bound, so that
+            // thousands of coincident lines cannot make this quadratic (any
+            // tie is ambiguous anyway).
+            if hits.len() >= 2 && (d > hits[1].d || hits.len() >= MAX_TIES) {
                 break;
             }
             hits.push(Hit { d, pos: item.pos, id: item.id });
