@@ -9,13 +9,19 @@ fn main() {
     let layers = hangline::write::OutputLayers::default();
     let opts = hangline::read::ReadOptions::default();
     let t = Instant::now();
-    let file = hangline::dxf::File::scan(&bytes, &hangline::read::scan_options(&opts.layers, layers.all())).expect("scans");
+    let file =
+        hangline::dxf::File::scan(&bytes, &hangline::read::scan_options(&opts.layers, layers.all())).expect("scans");
     println!("scan        {:?}", t.elapsed());
     let t = Instant::now();
     let reading = hangline::read::read(&file, &opts).expect("reads");
     println!("read model  {:?}", t.elapsed());
     let t = Instant::now();
-    let s = hangline::solve::solve(&reading.structure, hangline::solve::Form::Cable, &[hangline::solve::Condition::Sag(4.5)]).expect("solves");
+    let s = hangline::solve::solve(
+        &reading.structure,
+        hangline::solve::Form::Cable,
+        &[hangline::solve::Condition::Sag(4.5)],
+    )
+    .expect("solves");
     let (adds, _) = hangline::layout::layout(&reading.structure, &s, reading.extents, &Default::default());
     println!("solve+lay   {:?}", t.elapsed());
     let t = Instant::now();

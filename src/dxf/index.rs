@@ -11,13 +11,22 @@ use super::text::TextEncoding;
 use super::{DxfError, Release};
 
 /// What the caller wants kept from the scan.
-#[derive(Clone, Debug, Default)]
+#[derive(Clone, Debug)]
 pub struct ScanOptions {
     /// Layers whose model-space entities are listed in [`File::entities`]
     /// (compared without regard to case, as DXF layer names are).
     pub keep_layers: Vec<String>,
     /// Layers whose entities do not count toward [`File::extents`].
     pub skip_extents_layers: Vec<String>,
+    /// An ASCII ENTITIES section at least this long is scanned in two halves
+    /// on two threads (default [`PARALLEL_FROM`]).
+    pub parallel_from: usize,
+}
+
+impl Default for ScanOptions {
+    fn default() -> Self {
+        ScanOptions { keep_layers: Vec::new(), skip_extents_layers: Vec::new(), parallel_from: PARALLEL_FROM }
+    }
 }
 
 /// A header variable: the `9 $NAME` pair and its value pairs.
@@ -140,6 +149,18 @@ pub fn names_match(a: &str, b: &str) -> bool {
     a.eq_ignore_ascii_case(b) || (!a.is_ascii() && a.to_uppercase() == b.to_uppercase())
 }
 
+/// True when a layer name as stored is one of `names` (ignoring case);
+/// without decoding or allocating when the name is ASCII, as most are.
+fn layer_in(raw: &[u8], names: &[String], encoding: TextEncoding) -> bool {
+    let raw = raw.trim_ascii();
+    if raw.is_ascii() {
+        names.iter().any(|n| n.as_bytes().eq_ignore_ascii_case(raw))
+    } else {
+        let name = encoding.decode(raw);
+        names.iter().any(|n| names_match(n, name.trim()))
+    }
+}
+
 /// Reads pairs with one pair of look-ahead.
 struct Cursor<'a> {
     pairs: Pairs<'a>,
@@ -183,6 +204,28 @@ impl<'a> Cursor<'a> {
             location: self.pairs.location(),
             detail: format!("the file ends where {what} should follow"),
         })
+    }
+
+    /// The next pair of the current object: `None` at the next object's
+    /// `0` pair (left for the next call of [`Cursor::next`]) or at the end.
+    fn next_in_object(&mut self) -> Result<Option<Pair<'a>>, DxfError> {
+        let p = match self.peeked.take() {
+            Some(p) => p,
+            None => match self.pairs.next_pair()? {
+                Some(p) => p,
+                None => return Ok(None),
+            },
+        };
+        if p.code == 0 {
+            self.peeked = Some(p);
+            return Ok(None);
+        }
+        if (p.code == 5 || p.code == 105)
+            && let Some(h) = p.handle()
+        {
+            self.max_handle = self.max_handle.max(h);
+        }
+        Ok(Some(p))
     }
 
     /// True when the next pair starts a new object (group code 0) or the file ends.
@@ -588,13 +631,10 @@ fn scan_object<'a>(cur: &mut Cursor<'a>, head: &Pair<'a>) -> Result<(ObjectScan<
     let mut in_xdata = false;
     let mut end = head.end;
     let mut extrusion_z = 1.0;
-    while !cur.at_object_end()? {
-        let p = cur.expect("an entity value")?;
+    while let Some(p) = cur.next_in_object()? {
         end = p.end;
-        if p.code >= 1000 {
+        if in_xdata || p.code >= 1000 {
             in_xdata = true;
-        }
-        if in_xdata {
             continue;
         }
         match p.code {
@@ -603,20 +643,20 @@ fn scan_object<'a>(cur: &mut Cursor<'a>, head: &Pair<'a>) -> Result<(ObjectScan<
             2 => o.name = p.raw,
             67 => o.paper = p.i64() == Some(1),
             66 => o.attribs_follow = p.i64() == Some(1),
-            40 => o.radius = p.f64().unwrap_or(0.0),
-            41 => o.scale.0 = p.f64().unwrap_or(1.0),
-            42 => o.scale.1 = p.f64().unwrap_or(1.0),
-            50 => o.rotation = p.f64().unwrap_or(0.0),
-            230 => extrusion_z = p.f64().unwrap_or(1.0),
+            40 => o.radius = p.approx_f64().unwrap_or(0.0),
+            41 => o.scale.0 = p.approx_f64().unwrap_or(1.0),
+            42 => o.scale.1 = p.approx_f64().unwrap_or(1.0),
+            50 => o.rotation = p.approx_f64().unwrap_or(0.0),
+            230 => extrusion_z = p.approx_f64().unwrap_or(1.0),
             10..=16 if p.code == 10 || points_extra => {
-                pending[(p.code - 10) as usize] = p.f64().unwrap_or(f64::NAN);
+                pending[(p.code - 10) as usize] = p.approx_f64().unwrap_or(f64::NAN);
             }
             20..=26 => {
                 let i = (p.code - 20) as usize;
                 let x = pending[i];
                 if !x.is_nan() {
                     pending[i] = f64::NAN;
-                    let y = p.f64().unwrap_or(f64::NAN);
+                    let y = p.approx_f64().unwrap_or(f64::NAN);
                     if is_hatch && !skipped_elevation {
                         // HATCH's first point is its elevation point (0, 0, z).
                         skipped_elevation = true;
@@ -760,73 +800,243 @@ impl Scanner<'_> {
         total
     }
 
-    fn entities(&mut self, cur: &mut Cursor<'_>, file: &mut File<'_>) -> Result<usize, DxfError> {
-        // The entity group in progress: (index in file.entities if kept, or
-        // usize::MAX; whether sub-entities may follow).
-        let mut open: Option<(usize, bool)> = None;
-        loop {
-            let p = cur.expect("the rest of the ENTITIES section")?;
-            if p.code != 0 {
-                return Err(structure(format!("byte {}", p.start), "a value outside any entity"));
-            }
-            if p.is("ENDSEC") {
-                return Ok(p.start);
-            }
-            if p.is("EOF") {
-                return Err(DxfError::Truncated {
-                    location: format!("byte {}", p.start),
-                    detail: "ENTITIES has no ENDSEC".into(),
+    /// Resolves every block's bounds, so that the entities can be scanned
+    /// with read-only access (from two threads).
+    fn resolve_all(&mut self) {
+        let names: Vec<String> = self.blocks.keys().cloned().collect();
+        for n in names {
+            self.block_bounds(&n, 0);
+        }
+    }
+
+    /// The ENTITIES section from the cursor on (after its name); returns the
+    /// byte offset of its `0 ENDSEC`. Large ASCII sections are split at an
+    /// entity boundary and scanned on two threads.
+    fn entities<'a>(&mut self, cur: &mut Cursor<'a>, file: &mut File<'a>) -> Result<usize, DxfError> {
+        self.resolve_all();
+        let body = match cur.peek()? {
+            Some(p) => p.start,
+            None => cur.pairs.position(),
+        };
+        let ctx = EntityContext { options: self.options, blocks: &self.resolved, encoding: file.encoding };
+        let bytes = file.bytes;
+        let split = if file.format == Format::Ascii && bytes.len() - body >= self.options.parallel_from {
+            ascii_section_end(bytes, body).and_then(|end| ascii_entity_boundary(bytes, body + (end - body) / 2, end))
+        } else {
+            None
+        };
+        let (part, end) = match split {
+            Some(mid) => {
+                let (first, second) = std::thread::scope(|scope| {
+                    let second = scope.spawn(|| scan_entities(Pairs::at(bytes, file.format, mid), None, &ctx));
+                    let first = scan_entities(Pairs::at(bytes, file.format, body), Some(mid), &ctx);
+                    (first, second.join())
                 });
+                let (mut first, _) = first?;
+                let (second, end) = second.map_err(|_| structure(format!("byte {mid}"), "the scan failed"))??;
+                first.append(second);
+                // Carry on after the ENDSEC pair the second half ended at.
+                cur.peeked = None;
+                cur.pairs = Pairs::at(bytes, file.format, end);
+                cur.next()?;
+                (first, end)
             }
-            let (o, end) = scan_object(cur, &p)?;
-            let is_sub = matches!(o.kind, b"VERTEX" | b"ATTRIB" | b"SEQEND");
-            if let Some((idx, true)) = open
-                && is_sub
-            {
-                if idx != usize::MAX {
-                    file.entities[idx].span.end = end;
+            None => {
+                let (part, end) = scan_entities_cursor(cur, None, &ctx)?;
+                (part, end)
+            }
+        };
+        cur.max_handle = cur.max_handle.max(part.max_handle);
+        file.entities.extend(part.entities);
+        file.extents.merge(part.extents);
+        file.paper_space_kept += part.paper_space_kept;
+        Ok(end)
+    }
+}
+
+/// Default of [`ScanOptions::parallel_from`]: smaller sections are scanned
+/// on one thread (a thread costs more than it saves on small drawings).
+pub const PARALLEL_FROM: usize = 8 << 20;
+
+/// What the entity scan needs, shared read-only between threads.
+struct EntityContext<'o> {
+    options: &'o ScanOptions,
+    blocks: &'o HashMap<String, Bounds>,
+    encoding: TextEncoding,
+}
+
+/// What a part of the ENTITIES section gave.
+#[derive(Default)]
+struct EntitiesPart {
+    entities: Vec<EntityRef>,
+    extents: Bounds,
+    max_handle: u64,
+    paper_space_kept: usize,
+}
+
+impl EntitiesPart {
+    fn append(&mut self, other: EntitiesPart) {
+        self.entities.extend(other.entities);
+        self.extents.merge(other.extents);
+        self.max_handle = self.max_handle.max(other.max_handle);
+        self.paper_space_kept += other.paper_space_kept;
+    }
+}
+
+fn scan_entities<'a>(
+    pairs: Pairs<'a>,
+    stop_at: Option<usize>,
+    ctx: &EntityContext<'_>,
+) -> Result<(EntitiesPart, usize), DxfError> {
+    let mut cur = Cursor { pairs, peeked: None, max_handle: 0 };
+    let (mut part, end) = scan_entities_cursor(&mut cur, stop_at, ctx)?;
+    part.max_handle = part.max_handle.max(cur.max_handle);
+    Ok((part, end))
+}
+
+/// Scans entities up to `0 ENDSEC` (whose offset is returned) or, with
+/// `stop_at`, up to that offset (an entity boundary, returned).
+fn scan_entities_cursor(
+    cur: &mut Cursor<'_>,
+    stop_at: Option<usize>,
+    ctx: &EntityContext<'_>,
+) -> Result<(EntitiesPart, usize), DxfError> {
+    let mut part = EntitiesPart::default();
+    // The entity group in progress: (index in part.entities if kept, or
+    // usize::MAX; whether sub-entities may follow).
+    let mut open: Option<(usize, bool)> = None;
+    let mut name_buf = [0u8; 64];
+    loop {
+        if let Some(stop) = stop_at
+            && cur.peek()?.is_some_and(|p| p.start >= stop)
+        {
+            return Ok((part, stop));
+        }
+        let p = cur.expect("the rest of the ENTITIES section")?;
+        if p.code != 0 {
+            return Err(structure(format!("byte {}", p.start), "a value outside any entity"));
+        }
+        if p.is("ENDSEC") {
+            return Ok((part, p.start));
+        }
+        if p.is("EOF") {
+            return Err(DxfError::Truncated {
+                location: format!("byte {}", p.start),
+                detail: "ENTITIES has no ENDSEC".into(),
+            });
+        }
+        let (o, end) = scan_object(cur, &p)?;
+        let is_sub = matches!(o.kind, b"VERTEX" | b"ATTRIB" | b"SEQEND");
+        if let Some((idx, true)) = open
+            && is_sub
+        {
+            if idx != usize::MAX {
+                part.entities[idx].span.end = end;
+            }
+            if o.kind == b"SEQEND" {
+                open = None;
+            }
+            continue;
+        }
+        let on_kept_layer = layer_in(o.layer, &ctx.options.keep_layers, ctx.encoding);
+        let kept = !o.paper && on_kept_layer;
+        if o.paper && on_kept_layer {
+            part.paper_space_kept += 1;
+        }
+        let follows = o.kind == b"POLYLINE" || (o.kind == b"INSERT" && o.attribs_follow);
+        let idx = if kept {
+            part.entities.push(EntityRef {
+                kind: String::from_utf8_lossy(o.kind).trim().to_ascii_uppercase(),
+                layer: ctx.encoding.decode(o.layer).trim().to_string(),
+                handle: o.handle.map(|h| String::from_utf8_lossy(h).trim().to_string()),
+                span: p.start..end,
+            });
+            part.entities.len() - 1
+        } else {
+            usize::MAX
+        };
+        open = Some((idx, follows));
+        let skip_extents = o.paper || layer_in(o.layer, &ctx.options.skip_extents_layers, ctx.encoding);
+        if !skip_extents && !matches!(o.kind, b"XLINE" | b"RAY" | b"VIEWPORT") {
+            if o.kind == b"INSERT" {
+                let a = insert_transform(&o);
+                if let Some(r) = block_lookup(ctx, o.name, &mut name_buf).and_then(|b| b.rect()) {
+                    part.extents.add_rect(a.transform_rect_bbox(r));
                 }
-                if o.kind == b"SEQEND" {
-                    open = None;
+                if let Some(at) = o.insert_at {
+                    part.extents.add(at);
                 }
-                continue;
-            }
-            let layer = file.encoding.decode(o.layer);
-            let layer = layer.trim();
-            let kept = !o.paper && self.options.keep_layers.iter().any(|k| names_match(k, layer));
-            if o.paper && self.options.keep_layers.iter().any(|k| names_match(k, layer)) {
-                file.paper_space_kept += 1;
-            }
-            let follows = o.kind == b"POLYLINE" || (o.kind == b"INSERT" && o.attribs_follow);
-            let idx = if kept {
-                file.entities.push(EntityRef {
-                    kind: String::from_utf8_lossy(o.kind).trim().to_ascii_uppercase(),
-                    layer: layer.to_string(),
-                    handle: o.handle.map(|h| String::from_utf8_lossy(h).trim().to_string()),
-                    span: p.start..end,
-                });
-                file.entities.len() - 1
             } else {
-                usize::MAX
-            };
-            open = Some((idx, follows));
-            let skip_extents = o.paper || self.options.skip_extents_layers.iter().any(|k| names_match(k, layer));
-            if !skip_extents && !matches!(o.kind, b"XLINE" | b"RAY" | b"VIEWPORT") {
-                if o.kind == b"INSERT" {
-                    let name = file.encoding.decode(o.name).trim().to_uppercase();
-                    let a = insert_transform(&o);
-                    if let Some(r) = self.block_bounds(&name, 0).rect() {
-                        file.extents.add_rect(a.transform_rect_bbox(r));
-                    }
-                    if let Some(at) = o.insert_at {
-                        file.extents.add(at);
-                    }
-                } else {
-                    add_local(&mut file.extents, &o);
-                }
+                add_local(&mut part.extents, &o);
             }
         }
     }
+}
+
+/// The bounds of the block an INSERT names, without allocating for the
+/// usual short ASCII names.
+fn block_lookup(ctx: &EntityContext<'_>, raw: &[u8], buf: &mut [u8; 64]) -> Option<Bounds> {
+    let raw = raw.trim_ascii();
+    if raw.is_ascii() && raw.len() <= buf.len() {
+        let upper = &mut buf[..raw.len()];
+        upper.copy_from_slice(raw);
+        upper.make_ascii_uppercase();
+        let key = std::str::from_utf8(upper).ok()?;
+        ctx.blocks.get(key).copied()
+    } else {
+        ctx.blocks.get(&ctx.encoding.decode(raw).trim().to_uppercase()).copied()
+    }
+}
+
+/// The offset of the `0` line of the `0 ENDSEC` pair that ends the section
+/// whose body starts at `from`, in ASCII DXF. A line `ENDSEC` after a line
+/// reading `0` can only be that pair: were the `0` a value, the next line
+/// would be a group code, and group codes are numbers.
+fn ascii_section_end(bytes: &[u8], from: usize) -> Option<usize> {
+    let finder = memchr::memmem::Finder::new(b"ENDSEC");
+    let mut at = from;
+    while let Some(i) = finder.find(&bytes[at..]) {
+        let pos = at + i;
+        at = pos + 6;
+        let line_start = pos == 0 || bytes[pos - 1] == b'\n';
+        let rest = &bytes[pos + 6..];
+        let line_end = rest.first().is_none_or(|&c| c == b'\n' || c == b'\r' || c == b' ');
+        if !(line_start && line_end) || pos < 2 {
+            continue;
+        }
+        // The line before.
+        let prev_end = pos - 1;
+        let prev_start = bytes[..prev_end].iter().rposition(|&c| c == b'\n').map_or(0, |k| k + 1);
+        if bytes[prev_start..prev_end].trim_ascii() == b"0" && prev_start >= from {
+            return Some(prev_start);
+        }
+    }
+    None
+}
+
+/// The start of the first entity at or after `from` (and before `end`)
+/// that is not a sub-entity (VERTEX, ATTRIB, SEQEND), in ASCII DXF: a line
+/// reading `0` followed by a line that is not a number is a `0` pair, for
+/// the same reason as in [`ascii_section_end`].
+fn ascii_entity_boundary(bytes: &[u8], from: usize, end: usize) -> Option<usize> {
+    // Start at a line start.
+    let mut at = from + memchr::memchr(b'\n', &bytes[from..end])? + 1;
+    while at < end {
+        let l1_end = at + memchr::memchr(b'\n', &bytes[at..end])?;
+        let l2_start = l1_end + 1;
+        let l2_end = l2_start + memchr::memchr(b'\n', bytes.get(l2_start..end)?)?;
+        let first = bytes[at..l1_end].trim_ascii();
+        let second = bytes[l2_start..l2_end].trim_ascii();
+        if first == b"0"
+            && !second.is_empty()
+            && !second.iter().all(|c| c.is_ascii_digit() || *c == b'-' || *c == b'+' || *c == b'.')
+            && !matches!(second, b"VERTEX" | b"ATTRIB" | b"SEQEND" | b"ENDSEC")
+        {
+            return Some(at);
+        }
+        at = l1_end + 1;
+    }
+    None
 }
 
 fn add_local(bounds: &mut Bounds, o: &ObjectScan<'_>) {
@@ -850,7 +1060,35 @@ mod tests {
 0\nINSERT\n8\nX\n2\nARROW\n10\n20.0\n20\n0.0\n0\nCIRCLE\n8\nS\n10\n-5.0\n20\n0.0\n40\n1.0\n0\nENDSEC\n0\nEOF\n";
 
     fn opts() -> ScanOptions {
-        ScanOptions { keep_layers: vec!["LOADS".into(), "deck".into()], skip_extents_layers: vec![] }
+        ScanOptions { keep_layers: vec!["LOADS".into(), "deck".into()], ..ScanOptions::default() }
+    }
+
+    #[test]
+    fn two_threads_find_what_one_finds() {
+        // Many copies of the entities, so the split falls among them.
+        let body_at = MINI.find("0\nSECTION\n2\nENTITIES\n").unwrap() + "0\nSECTION\n2\nENTITIES\n".len();
+        let end_at = MINI.rfind("0\nENDSEC").unwrap();
+        let big = format!("{}{}{}", &MINI[..body_at], MINI[body_at..end_at].repeat(50), &MINI[end_at..]);
+        let one = File::scan(big.as_bytes(), &opts()).unwrap();
+        let two = File::scan(big.as_bytes(), &ScanOptions { parallel_from: 0, ..opts() }).unwrap();
+        assert_eq!(one.entities, two.entities);
+        assert_eq!(one.extents, two.extents);
+        assert_eq!(one.max_handle, two.max_handle);
+        assert_eq!(one.entities_end, two.entities_end);
+        assert_eq!(one.entities.len(), 100);
+    }
+
+    #[test]
+    fn section_ends_and_boundaries_are_found_by_their_lines() {
+        let text = b"0\nSECTION\n2\nENTITIES\n0\nTEXT\n1\n0\n70\n0\n1\nENDSEC\n0\nLINE\n8\n0\n0\nENDSEC\n0\nEOF\n";
+        let body = 22;
+        // A text reading ENDSEC after a value 0 is not the end.
+        let end = ascii_section_end(text, body).unwrap();
+        assert_eq!(&text[end..end + 8], b"0\nENDSEC");
+        assert_eq!(end, text.len() - "0\nENDSEC\n0\nEOF\n".len());
+        // The boundary after the TEXT is the LINE, not the value lines reading 0.
+        let b = ascii_entity_boundary(text, body + 2, end).unwrap();
+        assert_eq!(&text[b..b + 6], b"0\nLINE");
     }
 
     #[test]

@@ -18,7 +18,9 @@ mod text;
 
 pub use encode::Encoder;
 pub use extents::Bounds;
-pub use index::{BlockDef, EntityRef, File, HeaderVar, Record, ScanOptions, SpanPairs, Table, names_match};
+pub use index::{
+    BlockDef, EntityRef, File, HeaderVar, PARALLEL_FROM, Record, ScanOptions, SpanPairs, Table, names_match,
+};
 pub use ocs::ocs_to_wcs;
 pub use pairs::{BINARY_SENTINEL, Format, Kind, Pair, Pairs, kind_of};
 pub use text::{TextEncoding, unescape_unicode};

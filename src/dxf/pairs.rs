@@ -127,6 +127,13 @@ impl<'a> Pair<'a> {
         if self.binary { self.raw == s.as_bytes() } else { trim_ascii(self.raw) == s.as_bytes() }
     }
 
+    /// The value as a number, quickly and to about one unit in the last
+    /// place: for estimates only ([`approx_f64`]).
+    #[must_use]
+    pub fn approx_f64(&self) -> Option<f64> {
+        if self.binary { self.f64() } else { approx_f64(self.raw) }
+    }
+
     /// A hexadecimal handle value (codes 5, 105, 320–369, 390–399, 480–481).
     #[must_use]
     pub fn handle(&self) -> Option<u64> {
@@ -170,16 +177,22 @@ impl<'a> Pairs<'a> {
                 [0, b'S', ..] => false,
                 _ => return Err(DxfError::NotDxf { detail: "binary DXF sentinel not followed by a SECTION".into() }),
             };
-            Ok(Pairs { bytes, pos: BINARY_SENTINEL.len(), format: Format::Binary { wide_codes: wide }, line: 0 })
+            let pos = BINARY_SENTINEL.len();
+            Ok(Pairs::new_at(bytes, Format::Binary { wide_codes: wide }, pos, 0))
         } else {
-            Ok(Pairs { bytes, pos: 0, format: Format::Ascii, line: 1 })
+            Ok(Pairs::new_at(bytes, Format::Ascii, 0, 1))
         }
     }
 
     /// Pairs of a part of a file whose format is known, starting at byte `pos`.
     #[must_use]
     pub fn at(bytes: &'a [u8], format: Format, pos: usize) -> Pairs<'a> {
-        Pairs { bytes, pos, format, line: 0 }
+        Pairs::new_at(bytes, format, pos, 0)
+    }
+
+    fn new_at(bytes: &'a [u8], format: Format, pos: usize, line: usize) -> Pairs<'a> {
+        let pos = pos.min(bytes.len());
+        Pairs { bytes, pos, format, line }
     }
 
     /// The file's format.
@@ -206,6 +219,7 @@ impl<'a> Pairs<'a> {
     }
 
     /// The next pair, `Ok(None)` at the end of the bytes.
+    #[inline]
     pub fn next_pair(&mut self) -> Result<Option<Pair<'a>>, DxfError> {
         if self.pos >= self.bytes.len() {
             return Ok(None);
@@ -216,16 +230,15 @@ impl<'a> Pairs<'a> {
         }
     }
 
+    #[inline(always)]
     fn next_line(&mut self) -> Option<(&'a [u8], usize)> {
         let bytes = self.bytes;
         if self.pos >= bytes.len() {
             return None;
         }
         let start = self.pos;
-        let (line_end, next) = match memchr::memchr(b'\n', &bytes[start..]) {
-            Some(i) => (start + i, start + i + 1),
-            None => (bytes.len(), bytes.len()),
-        };
+        let line_end = line_end(bytes, start);
+        let next = (line_end + 1).min(bytes.len());
         let mut line = &bytes[start..line_end];
         if let [head @ .., b'\r'] = line {
             line = head;
@@ -237,7 +250,37 @@ impl<'a> Pairs<'a> {
         Some((line, start))
     }
 
+    #[inline]
     fn next_ascii(&mut self) -> Result<Option<Pair<'a>>, DxfError> {
+        let bytes = self.bytes;
+        let start = self.pos;
+        // Most writers pad codes to three characters: read those directly.
+        if let Some((code, value_start)) = padded_code(bytes, start) {
+            let nl = line_end(bytes, value_start);
+            let raw = bytes[value_start..nl].trim_ascii_end();
+            self.pos = (nl + 1).min(bytes.len());
+            if nl == bytes.len() && value_start >= bytes.len() {
+                return Err(DxfError::Truncated {
+                    location: self.location(),
+                    detail: format!("group code {code} has no value"),
+                });
+            }
+            if self.line > 0 {
+                self.line += 2;
+            }
+            return Ok(Some(Pair {
+                code,
+                raw,
+                start,
+                end: self.pos,
+                value: (value_start, value_start + raw.len()),
+                binary: false,
+            }));
+        }
+        self.next_ascii_slow()
+    }
+
+    fn next_ascii_slow(&mut self) -> Result<Option<Pair<'a>>, DxfError> {
         let code_line_no = self.line;
         let Some((code_line, start)) = self.next_line() else { return Ok(None) };
         let code_text = code_line.trim_ascii();
@@ -317,10 +360,115 @@ impl<'a> Pairs<'a> {
     }
 }
 
+/// Where the line starting at `from` ends (its `\n`, or the end of the
+/// bytes). DXF lines are mostly a few bytes long, so a plain loop over the
+/// first bytes beats setting up a vector search; longer lines get one.
+#[inline]
+fn line_end(bytes: &[u8], from: usize) -> usize {
+    let near = (from + 16).min(bytes.len());
+    if let Some(i) = bytes.get(from..near).and_then(|b| b.iter().position(|&c| c == b'\n')) {
+        return from + i;
+    }
+    memchr::memchr(b'\n', bytes.get(near..).unwrap_or_default()).map_or(bytes.len(), |i| near + i)
+}
+
+/// A code line of exactly three characters (right-aligned digits) and its
+/// line end, as AutoCAD and ezdxf write them: the code and where its value
+/// line starts. Anything else is left to the general path.
+#[inline]
+fn padded_code(bytes: &[u8], at: usize) -> Option<(i32, usize)> {
+    let w = bytes.get(at..at + 4)?;
+    let next = match w[3] {
+        b'\n' => at + 4,
+        b'\r' if bytes.get(at + 4) == Some(&b'\n') => at + 5,
+        _ => return None,
+    };
+    let mut code = 0i32;
+    let mut digits = 0;
+    for &c in &w[..3] {
+        match c {
+            b' ' if digits == 0 => {}
+            b'0'..=b'9' => {
+                code = code * 10 + i32::from(c - b'0');
+                digits += 1;
+            }
+            _ => return None,
+        }
+    }
+    (digits > 0).then_some((code, next))
+}
+
+/// A group code from its (trimmed) line: an optional sign and at most four
+/// digits, in the range the DXF reference uses (−5 to 1071).
+#[inline]
 fn parse_code(t: &[u8]) -> Option<i32> {
-    let s = std::str::from_utf8(t).ok()?;
-    let v: i32 = s.parse().ok()?;
+    let (neg, digits) = match t {
+        [b'-', rest @ ..] => (true, rest),
+        [b'+', rest @ ..] => (false, rest),
+        _ => (false, t),
+    };
+    if digits.is_empty() || digits.len() > 4 {
+        return None;
+    }
+    let mut v: i32 = 0;
+    for &d in digits {
+        if !d.is_ascii_digit() {
+            return None;
+        }
+        v = v * 10 + i32::from(d - b'0');
+    }
+    let v = if neg { -v } else { v };
     (-5..=1071).contains(&v).then_some(v)
+}
+
+/// Parses a decimal number quickly and approximately (to about one unit in
+/// the last place); for estimates such as extents only. Falls back to the
+/// exact parser on anything unusual.
+#[must_use]
+pub fn approx_f64(b: &[u8]) -> Option<f64> {
+    let b = b.trim_ascii();
+    let (neg, rest) = match b {
+        [b'-', r @ ..] => (true, r),
+        [b'+', r @ ..] => (false, r),
+        _ => (false, b),
+    };
+    let mut mantissa: u64 = 0;
+    let mut digits = 0;
+    let mut scale: i32 = 0;
+    let mut seen_point = false;
+    let mut i = 0;
+    while i < rest.len() {
+        let c = rest[i];
+        if c.is_ascii_digit() {
+            if digits < 18 {
+                mantissa = mantissa * 10 + u64::from(c - b'0');
+                digits += 1;
+                if seen_point {
+                    scale -= 1;
+                }
+            } else if !seen_point {
+                scale += 1;
+            }
+        } else if c == b'.' && !seen_point {
+            seen_point = true;
+        } else {
+            break;
+        }
+        i += 1;
+    }
+    if i < rest.len() || i == 0 {
+        // An exponent, junk or nothing: the exact parser decides.
+        return std::str::from_utf8(b).ok()?.parse().ok();
+    }
+    const POW10: [f64; 19] =
+        [1e0, 1e1, 1e2, 1e3, 1e4, 1e5, 1e6, 1e7, 1e8, 1e9, 1e10, 1e11, 1e12, 1e13, 1e14, 1e15, 1e16, 1e17, 1e18];
+    let m = mantissa as f64;
+    let v = if scale >= 0 {
+        m * POW10.get(scale as usize).copied().unwrap_or(f64::INFINITY)
+    } else {
+        m / POW10.get((-scale) as usize).copied().unwrap_or(f64::INFINITY)
+    };
+    Some(if neg { -v } else { v })
 }
 
 #[cfg(test)]
@@ -355,6 +503,23 @@ mod tests {
         p.next_pair().unwrap();
         let e = p.next_pair().unwrap_err().to_string();
         assert!(e.contains("line 3"), "{e}");
+    }
+
+    #[test]
+    fn approximate_numbers_are_close() {
+        for t in
+            ["0", "12.5", "-3.25", "1234567.891", ".5", "7.", "1e-3", "-2.5E+4", "0.000001", "123456789012345678901"]
+        {
+            let exact: f64 = t.parse().unwrap();
+            let fast = approx_f64(t.as_bytes()).unwrap();
+            assert!((fast - exact).abs() <= 4.0 * f64::EPSILON * exact.abs(), "{t}: {fast} vs {exact}");
+        }
+        assert_eq!(approx_f64(b"nan").map(f64::is_nan), Some(true));
+        assert_eq!(approx_f64(b"x1"), None);
+        assert_eq!(parse_code(b"1071"), Some(1071));
+        assert_eq!(parse_code(b"-1"), Some(-1));
+        assert_eq!(parse_code(b"10000"), None);
+        assert_eq!(parse_code(b"1x"), None);
     }
 
     #[test]

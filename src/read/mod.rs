@@ -167,7 +167,7 @@ pub fn scan_options<'a>(layers: &InputLayers, extra: impl Iterator<Item = &'a st
     let extra: Vec<String> = extra.map(String::from).collect();
     let mut keep = vec![layers.supports.clone(), layers.loads.clone(), layers.deck.clone()];
     keep.extend(extra.iter().cloned());
-    ScanOptions { keep_layers: keep, skip_extents_layers: extra }
+    ScanOptions { keep_layers: keep, skip_extents_layers: extra, ..ScanOptions::default() }
 }
 
 /// Tolerance for "vertical": |dx| at most this fraction of a line's length

@@ -375,8 +375,7 @@ mod tests {
 
     fn write_str(src: &str) -> String {
         let layers = OutputLayers::default();
-        let options =
-            ScanOptions { keep_layers: layers.all().map(String::from).collect(), skip_extents_layers: vec![] };
+        let options = ScanOptions { keep_layers: layers.all().map(String::from).collect(), ..ScanOptions::default() };
         let file = File::scan(src.as_bytes(), &options).unwrap();
         let mut out = Vec::new();
         write(&file, &additions(), &layers, &mut out).unwrap();
