@@ -12,7 +12,7 @@ use crate::layout::{LayoutOptions, Placement, layout};
 use crate::read::{ReadOptions, Reading, read, scan_options};
 use crate::solve::{Condition, Form, Solution, solve};
 use crate::units::{ForceUnit, LengthUnit, Units};
-use crate::write::{OutputLayers, Summary, write};
+use crate::write::{OutputLayers, Plan, Summary, WriteError, plan};
 
 /// A force as given on the command line: a value and, optionally, its unit
 /// (without one, the model's force unit).
@@ -118,6 +118,14 @@ pub fn inspect(bytes: &[u8], options: &ReadOptions, layers: &OutputLayers) -> Re
 
 /// Runs the whole job on `bytes`, writing the output drawing to `out`.
 pub fn run(bytes: &[u8], job: &Job, out: &mut dyn Write) -> Result<Outcome, Error> {
+    let (outcome, plan) = prepare(bytes, job)?;
+    plan.apply(bytes, out).map_err(WriteError::from)?;
+    Ok(outcome)
+}
+
+/// Runs the whole job on `bytes` up to the plan of the output, which the
+/// caller applies (from memory, or by copying ranges of the input file).
+pub fn prepare(bytes: &[u8], job: &Job) -> Result<(Outcome, Plan), Error> {
     let file = File::scan(bytes, &scan_options(&job.read.layers, job.layers.all()))?;
     let reading = read(&file, &job.read)?;
     let conditions = conditions(&job.given, job.form, reading.structure.units())?;
@@ -128,6 +136,6 @@ pub fn run(bytes: &[u8], job: &Job, out: &mut dyn Write) -> Result<Outcome, Erro
         layout_options.force_scale = Some(f.value * f.unit.map_or(1.0, |u| u.factor_to(unit)));
     }
     let (additions, placement) = layout(&reading.structure, &solution, reading.extents, &layout_options);
-    let summary = write(&file, &additions, &job.layers, out)?;
-    Ok(Outcome { reading, solution, placement, summary })
+    let (plan, summary) = plan(&file, &additions, &job.layers)?;
+    Ok((Outcome { reading, solution, placement, summary }, plan))
 }

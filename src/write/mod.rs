@@ -117,6 +117,61 @@ struct Edit {
     order: usize,
 }
 
+/// The output as a sequence of runs: pieces of the input to copy as they
+/// are, and new bytes. Applying it needs the input's bytes (in memory, or a
+/// file to copy ranges from — which lets the operating system copy the
+/// unchanged bulk without it passing through this program).
+#[derive(Clone, Debug, Default, PartialEq)]
+pub struct Plan {
+    runs: Vec<Run>,
+}
+
+/// One run of the output.
+#[derive(Clone, Debug, PartialEq)]
+pub enum Run {
+    /// These bytes of the input, unchanged.
+    Copy(Range<usize>),
+    /// New bytes.
+    Insert(Vec<u8>),
+}
+
+impl Plan {
+    /// The runs in output order.
+    #[must_use]
+    pub fn runs(&self) -> &[Run] {
+        &self.runs
+    }
+
+    /// Writes the output, taking the input's bytes from `input`.
+    pub fn apply(&self, input: &[u8], out: &mut dyn Write) -> std::io::Result<()> {
+        for run in &self.runs {
+            match run {
+                Run::Copy(r) => out.write_all(&input[r.clone()])?,
+                Run::Insert(b) => out.write_all(b)?,
+            }
+        }
+        Ok(())
+    }
+
+    /// The output's length in bytes.
+    #[must_use]
+    pub fn len(&self) -> usize {
+        self.runs
+            .iter()
+            .map(|r| match r {
+                Run::Copy(r) => r.len(),
+                Run::Insert(b) => b.len(),
+            })
+            .sum()
+    }
+
+    /// True when the output is empty (never, for a drawing).
+    #[must_use]
+    pub fn is_empty(&self) -> bool {
+        self.len() == 0
+    }
+}
+
 /// Writes `file` with `additions` to `out`.
 pub fn write(
     file: &File<'_>,
@@ -124,6 +179,13 @@ pub fn write(
     layers: &OutputLayers,
     out: &mut dyn Write,
 ) -> Result<Summary, WriteError> {
+    let (plan, summary) = plan(file, additions, layers)?;
+    plan.apply(file.bytes, out)?;
+    Ok(summary)
+}
+
+/// Plans the output of `file` with `additions`: what [`write`] writes.
+pub fn plan(file: &File<'_>, additions: &Additions, layers: &OutputLayers) -> Result<(Plan, Summary), WriteError> {
     for name in layers.all() {
         check_layer_name(name, file.release).map_err(WriteError::LayerName)?;
     }
@@ -311,25 +373,31 @@ pub fn write(
         }
     }
 
-    splice(file.bytes, edits, out)?;
-    Ok(summary)
+    Ok((splice(file.bytes.len(), edits), summary))
 }
 
-/// Copies `bytes` to `out` with the edits applied.
-fn splice(bytes: &[u8], mut edits: Vec<Edit>, out: &mut dyn Write) -> std::io::Result<()> {
+/// The runs that copy an input of `len` bytes with the edits applied.
+fn splice(len: usize, mut edits: Vec<Edit>) -> Plan {
     edits.sort_by_key(|e| (e.range.start, e.range.end > e.range.start, e.order));
+    let mut runs = Vec::with_capacity(2 * edits.len() + 1);
     let mut at = 0;
     for e in edits {
         if e.range.start < at {
             // Inside a run already removed (a sub-entity of a removed entity).
             continue;
         }
-        out.write_all(&bytes[at..e.range.start])?;
-        out.write_all(&e.bytes)?;
+        if e.range.start > at {
+            runs.push(Run::Copy(at..e.range.start));
+        }
+        if !e.bytes.is_empty() {
+            runs.push(Run::Insert(e.bytes));
+        }
         at = e.range.end;
     }
-    out.write_all(&bytes[at..])?;
-    Ok(())
+    if at < len {
+        runs.push(Run::Copy(at..len));
+    }
+    Plan { runs }
 }
 
 #[cfg(test)]
@@ -346,8 +414,10 @@ mod tests {
             Edit { range: 9..10, bytes: b"X".to_vec(), order: 3 },
         ];
         let mut out = Vec::new();
-        splice(src, edits, &mut out).unwrap();
+        let plan = splice(src.len(), edits);
+        plan.apply(src, &mut out).unwrap();
         assert_eq!(out, b"01bc5678X");
+        assert_eq!(plan.len(), out.len());
     }
 
     use crate::dxf::{File, ScanOptions};

@@ -4,7 +4,8 @@
 
 mod args;
 
-use std::io::{BufWriter, Write};
+use std::fs::File;
+use std::io::{Read, Seek, SeekFrom, Write};
 use std::path::{Path, PathBuf};
 use std::process::ExitCode;
 
@@ -16,6 +17,7 @@ use hangline::layout::nice::{fmt_force, fmt_length, member_name};
 use hangline::layout::result_line;
 use hangline::pipeline;
 use hangline::report::{CAUTION, inspection, report};
+use hangline::write::{Plan, Run};
 
 fn main() -> ExitCode {
     let cli = Cli::parse();
@@ -49,6 +51,44 @@ fn warn(line: &str) {
 
 fn read_input(path: &Path) -> Result<Vec<u8>> {
     std::fs::read(path).with_context(|| format!("cannot read {}", path.display()))
+}
+
+/// What identifies a version of a file: its length and modification time.
+type Stamp = (u64, Option<std::time::SystemTime>);
+
+/// The input's current [`Stamp`].
+fn file_stamp(f: &File) -> Result<Stamp> {
+    let m = f.metadata().context("cannot read the input's metadata")?;
+    Ok((m.len(), m.modified().ok()))
+}
+
+/// Opens the input, notes its version, and reads it whole.
+fn open_input(path: &Path) -> Result<(File, Stamp, Vec<u8>)> {
+    let mut f = File::open(path).with_context(|| format!("cannot read {}", path.display()))?;
+    let stamp = file_stamp(&f)?;
+    let mut bytes = Vec::with_capacity(usize::try_from(stamp.0).unwrap_or(0) + 1);
+    f.read_to_end(&mut bytes).with_context(|| format!("cannot read {}", path.display()))?;
+    Ok((f, stamp, bytes))
+}
+
+/// Writes the output: the unchanged runs copied from the input file by the
+/// operating system (`copy_file_range` on Linux, through `std::io::copy`),
+/// the new bytes written.
+fn apply_plan(plan: &Plan, input: &File, out: &mut File) -> std::io::Result<()> {
+    let mut reader = input;
+    for run in plan.runs() {
+        match run {
+            Run::Copy(r) => {
+                reader.seek(SeekFrom::Start(r.start as u64))?;
+                let n = std::io::copy(&mut reader.take(r.len() as u64), out)?;
+                if n != r.len() as u64 {
+                    return Err(std::io::Error::new(std::io::ErrorKind::UnexpectedEof, "the input got shorter"));
+                }
+            }
+            Run::Insert(b) => out.write_all(b)?,
+        }
+    }
+    out.flush()
 }
 
 /// True when `a` and `b` name the same existing file.
@@ -88,16 +128,15 @@ fn solve(a: &SolveArgs) -> Result<()> {
             bail!("the report {} would overwrite a drawing; give the report another name", r.display());
         }
     }
-    let bytes = read_input(&a.input)?;
     let input_name = a.input.display().to_string();
+    let (input_file, stamp, bytes) = open_input(&a.input)?;
+    let (outcome, plan) = pipeline::prepare(&bytes, &job).with_context(|| input_name.clone())?;
 
     let mut temp = temp_beside(&output)?;
-    let outcome = {
-        let mut w = BufWriter::new(temp.as_file_mut());
-        let outcome = pipeline::run(&bytes, &job, &mut w).with_context(|| input_name.clone())?;
-        w.flush().with_context(|| format!("cannot write {}", output.display()))?;
-        outcome
-    };
+    apply_plan(&plan, &input_file, temp.as_file_mut()).with_context(|| format!("cannot write {}", output.display()))?;
+    if file_stamp(&input_file)? != stamp {
+        bail!("{input_name} changed while it was being processed; nothing was written: run again");
+    }
     let report_temp = match &a.report {
         Some(path) => {
             let mut t = temp_beside(path)?;
