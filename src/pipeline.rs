@@ -110,6 +110,27 @@ pub fn conditions(given: &[Given], form: Form, units: Units) -> Result<Vec<Condi
         .collect()
 }
 
+/// Warnings about values that are possible but probably not meant: a sag
+/// or rise below 1/1000 of the span, or above the span (a unit mix-up, most
+/// often). Common practice, no source: cables and arches are rarely flatter
+/// than span/100 or deeper than span/2.
+fn sanity(reading: &Reading, conditions: &[Condition]) -> Vec<String> {
+    let span = reading.structure.span();
+    let unit = reading.structure.units().length;
+    conditions
+        .iter()
+        .filter_map(|c| match c {
+            Condition::Sag(f) if *f < span / 1000.0 || *f > span => Some(format!(
+                "the sag or rise, {} {unit}, is {} of the span ({} {unit}); check its unit (a value may carry one, e.g. \"4.5 m\")",
+                crate::model::fmt_num(*f),
+                if *f < span / 1000.0 { "under 1/1000" } else { "more than" },
+                crate::model::fmt_num(span)
+            )),
+            _ => None,
+        })
+        .collect()
+}
+
 /// Reads a drawing without solving: what `inspect` shows.
 pub fn inspect(bytes: &[u8], options: &ReadOptions, layers: &OutputLayers) -> Result<Reading, Error> {
     let file = File::scan(bytes, &scan_options(&options.layers, layers.all()))?;
@@ -129,7 +150,8 @@ pub fn prepare(bytes: &[u8], job: &Job) -> Result<(Outcome, Plan), Error> {
     let file = File::scan(bytes, &scan_options(&job.read.layers, job.layers.all()))?;
     let reading = read(&file, &job.read)?;
     let conditions = conditions(&job.given, job.form, reading.structure.units())?;
-    let solution = solve(&reading.structure, job.form, &conditions)?;
+    let mut solution = solve(&reading.structure, job.form, &conditions)?;
+    solution.warnings.extend(sanity(&reading, &conditions));
     let mut layout_options = job.layout;
     if let Some(f) = job.force_scale {
         let unit = reading.structure.units().force;

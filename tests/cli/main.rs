@@ -4,6 +4,7 @@
 #![allow(clippy::print_stderr, missing_docs)]
 
 mod bad;
+mod batch;
 mod behaviour;
 mod cases;
 mod outside;

@@ -81,8 +81,8 @@ pub struct ReadArgs {
     #[arg(long, value_name = "UNIT")]
     pub force_unit: Option<String>,
     /// Unit of labels written without one (default kN).
-    #[arg(long, value_name = "UNIT", default_value = "kN")]
-    pub label_unit: String,
+    #[arg(long, value_name = "UNIT")]
+    pub label_unit: Option<String>,
     /// Take each load line's magnitude from its length: force per drawing
     /// unit, e.g. "10 kN" (labels are then ignored).
     #[arg(long, value_name = "FORCE", allow_hyphen_values = true)]
@@ -92,14 +92,34 @@ pub struct ReadArgs {
 /// `hangline solve`.
 #[derive(Debug, Args)]
 pub struct SolveArgs {
-    /// The input drawing (ASCII or binary DXF, R12 to R2018).
-    pub input: PathBuf,
-    /// The output drawing (default: INPUT-hangline.dxf beside the input).
+    /// The input drawing(s) (ASCII or binary DXF, R12 to R2018): files,
+    /// folders (their .dxf files) or quoted glob patterns ("sheets/*.dxf").
+    /// Several drawings are solved in parallel, each with the same options.
+    #[arg(value_name = "INPUT", required_unless_present = "jobs")]
+    pub input: Vec<PathBuf>,
+    /// A job file: one drawing a line with its own options, e.g.
+    /// `span-2.dxf --sag 4.5 --layer loads=LASTEN` (paths relative to the
+    /// job file; # starts a comment). Options on the command line apply to
+    /// every line that does not give its own.
+    #[arg(long, value_name = "FILE")]
+    pub jobs: Option<PathBuf>,
+    /// The output drawing (default: INPUT-hangline.dxf beside the input);
+    /// with several drawings, a folder for them.
     #[arg(short, long, value_name = "OUT.dxf")]
     pub output: Option<PathBuf>,
-    /// Also write a JSON report.
+    /// Also write a JSON report; with several drawings, a folder for one
+    /// report each (NAME-hangline.json).
     #[arg(long, value_name = "FILE.json")]
     pub report: Option<PathBuf>,
+    /// With several drawings: look into sub-folders too.
+    #[arg(long)]
+    pub recursive: bool,
+    /// With several drawings: how many to solve at once (default: one per core).
+    #[arg(long, value_name = "N")]
+    pub threads: Option<usize>,
+    /// With several drawings: write the summary table as JSON too.
+    #[arg(long, value_name = "FILE.json")]
+    pub summary: Option<PathBuf>,
     /// Find an arch (compression, above the chord) instead of a cable.
     #[arg(long)]
     pub arch: bool,
@@ -194,6 +214,24 @@ fn parse_unit<T: std::str::FromStr<Err = String>>(s: &str, flag: &str) -> Result
 }
 
 impl ReadArgs {
+    fn label_unit(&self) -> Result<ForceUnit> {
+        self.label_unit.as_deref().map_or(Ok(ForceUnit::Kilonewton), |u| parse_unit(u, "--label-unit"))
+    }
+
+    /// These options, with `defaults` filling what they leave out (layer
+    /// renamings add up; a line's own rename of a role wins).
+    pub fn or(&self, defaults: &ReadArgs) -> ReadArgs {
+        let mut layers = defaults.layers.clone();
+        layers.extend(self.layers.iter().cloned());
+        ReadArgs {
+            layers,
+            units: self.units.clone().or_else(|| defaults.units.clone()),
+            force_unit: self.force_unit.clone().or_else(|| defaults.force_unit.clone()),
+            label_unit: self.label_unit.clone().or_else(|| defaults.label_unit.clone()),
+            load_scale: self.load_scale.clone().or_else(|| defaults.load_scale.clone()),
+        }
+    }
+
     /// Checks the reading options; also returns the output layer names.
     pub fn options(&self) -> Result<(ReadOptions, OutputLayers)> {
         let mut input = InputLayers::default();
@@ -240,7 +278,7 @@ impl ReadArgs {
         let load_scale = match &self.load_scale {
             Some(s) => {
                 let f = parse_force(s, "--load-scale")?;
-                Some((f.value, f.unit.unwrap_or(parse_unit(&self.label_unit, "--label-unit")?)))
+                Some((f.value, f.unit.unwrap_or(self.label_unit()?)))
             }
             None => None,
         };
@@ -253,7 +291,7 @@ impl ReadArgs {
                     .as_deref()
                     .map(|u| parse_unit::<ForceUnit>(u, "--force-unit"))
                     .transpose()?,
-                label_unit: parse_unit(&self.label_unit, "--label-unit")?,
+                label_unit: self.label_unit()?,
                 load_scale,
             },
             output,
@@ -262,6 +300,34 @@ impl ReadArgs {
 }
 
 impl SolveArgs {
+    /// A job line's options, with the command line's filling what the line
+    /// leaves out.
+    pub fn or(&self, defaults: &SolveArgs) -> SolveArgs {
+        let pick = |a: &Option<String>, b: &Option<String>| a.clone().or_else(|| b.clone());
+        SolveArgs {
+            input: self.input.clone(),
+            jobs: None,
+            output: self.output.clone(),
+            report: self.report.clone(),
+            recursive: false,
+            threads: None,
+            summary: None,
+            arch: self.arch || defaults.arch,
+            through: if self.through.is_empty() { defaults.through.clone() } else { self.through.clone() },
+            thrust: pick(&self.thrust, &defaults.thrust),
+            sag: pick(&self.sag, &defaults.sag),
+            rise: pick(&self.rise, &defaults.rise),
+            max_force: pick(&self.max_force, &defaults.max_force),
+            level_at: pick(&self.level_at, &defaults.level_at),
+            force_scale: pick(&self.force_scale, &defaults.force_scale),
+            diagram_at: pick(&self.diagram_at, &defaults.diagram_at),
+            text_height: self.text_height.or(defaults.text_height),
+            force: self.force || defaults.force,
+            quiet: true,
+            read: self.read.or(&defaults.read),
+        }
+    }
+
     /// Checks everything into a job.
     pub fn job(&self) -> Result<Job> {
         let (read, layers) = self.read.options()?;

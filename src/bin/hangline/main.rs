@@ -3,6 +3,7 @@
 //! destinations and renaming them into place only when everything worked.
 
 mod args;
+mod batch;
 
 use std::fs::File;
 use std::io::{Read, Seek, SeekFrom, Write};
@@ -15,7 +16,7 @@ use clap::Parser;
 use args::{Cli, Command, InspectArgs, SolveArgs};
 use hangline::layout::nice::{fmt_force, fmt_length, member_name};
 use hangline::layout::result_line;
-use hangline::pipeline;
+use hangline::pipeline::{self, Job};
 use hangline::report::{CAUTION, inspection, report};
 use hangline::write::{Plan, Run};
 
@@ -23,10 +24,11 @@ fn main() -> ExitCode {
     let cli = Cli::parse();
     let result = match &cli.command {
         Command::Solve(a) => solve(a),
-        Command::Inspect(a) => inspect(a),
+        Command::Inspect(a) => inspect(a).map(|()| true),
     };
     match result {
-        Ok(()) => ExitCode::SUCCESS,
+        Ok(true) => ExitCode::SUCCESS,
+        Ok(false) => ExitCode::from(1),
         Err(e) => {
             #[allow(clippy::print_stderr)]
             {
@@ -99,7 +101,8 @@ fn same_file(a: &Path, b: &Path) -> bool {
     }
 }
 
-fn default_output(input: &Path) -> PathBuf {
+/// INPUT-hangline.dxf beside the input.
+pub fn default_output(input: &Path) -> PathBuf {
     let stem = input.file_stem().map_or_else(|| "drawing".into(), |s| s.to_string_lossy().into_owned());
     input.with_file_name(format!("{stem}-hangline.dxf"))
 }
@@ -117,27 +120,42 @@ fn temp_beside(dest: &Path) -> Result<tempfile::NamedTempFile> {
         .with_context(|| format!("cannot create a file in {}", dir.display()))
 }
 
-fn solve(a: &SolveArgs) -> Result<()> {
-    let job = a.job()?;
-    let output = a.output.clone().unwrap_or_else(|| default_output(&a.input));
-    if same_file(&output, &a.input) && !a.force {
-        bail!("the output {} is the input drawing; give another -o, or --force to replace the input", output.display());
-    }
-    if let Some(r) = &a.report {
-        if same_file(r, &a.input) || r == &output {
-            bail!("the report {} would overwrite a drawing; give the report another name", r.display());
+/// A drawing solved and written.
+pub struct Done {
+    /// What came of it.
+    pub outcome: pipeline::Outcome,
+    /// Where the drawing went.
+    pub output: PathBuf,
+}
+
+/// Solves one drawing and writes its output (and report), each whole or not
+/// at all.
+pub fn solve_one(input: &Path, output: &Path, report_to: Option<&Path>, job: &Job, force: bool) -> Result<Done> {
+    for (what, p) in [("output", Some(output)), ("report", report_to)] {
+        if let Some(p) = p
+            && p.is_dir()
+        {
+            bail!("the {what} {} is a folder; give a file name", p.display());
         }
     }
-    let input_name = a.input.display().to_string();
-    let (input_file, stamp, bytes) = open_input(&a.input)?;
-    let (outcome, plan) = pipeline::prepare(&bytes, &job).with_context(|| input_name.clone())?;
+    if same_file(output, input) && !force {
+        bail!("the output {} is the input drawing; give another -o, or --force to replace the input", output.display());
+    }
+    if let Some(r) = report_to
+        && (same_file(r, input) || r == output)
+    {
+        bail!("the report {} would overwrite a drawing; give the report another name", r.display());
+    }
+    let input_name = input.display().to_string();
+    let (input_file, stamp, bytes) = open_input(input)?;
+    let (outcome, plan) = pipeline::prepare(&bytes, job).with_context(|| input_name.clone())?;
 
-    let mut temp = temp_beside(&output)?;
+    let mut temp = temp_beside(output)?;
     apply_plan(&plan, &input_file, temp.as_file_mut()).with_context(|| format!("cannot write {}", output.display()))?;
     if file_stamp(&input_file)? != stamp {
         bail!("{input_name} changed while it was being processed; nothing was written: run again");
     }
-    let report_temp = match &a.report {
+    let report_temp = match report_to {
         Some(path) => {
             let mut t = temp_beside(path)?;
             let r = report(&input_name, &outcome.reading, &outcome.solution, Some(&outcome.placement));
@@ -147,11 +165,25 @@ fn solve(a: &SolveArgs) -> Result<()> {
         }
         None => None,
     };
-    temp.persist(&output).with_context(|| format!("cannot write {}", output.display()))?;
+    temp.persist(output).with_context(|| format!("cannot write {}", output.display()))?;
     if let Some((t, path)) = report_temp {
         t.persist(path).with_context(|| format!("cannot write {}", path.display()))?;
     }
+    Ok(Done { outcome, output: output.to_path_buf() })
+}
 
+/// `hangline solve`: one drawing in detail, or many in a batch. Returns
+/// whether everything asked for was solved.
+fn solve(a: &SolveArgs) -> Result<bool> {
+    if batch::is_batch(a) {
+        return batch::run(a);
+    }
+    let input = &a.input[0];
+    let job = a.job()?;
+    let output = a.output.clone().unwrap_or_else(|| default_output(input));
+    let done = solve_one(input, &output, a.report.as_deref(), &job, a.force)?;
+    let input_name = input.display().to_string();
+    let outcome = &done.outcome;
     let r = &outcome.reading;
     let s = &outcome.solution;
     let st = &r.structure;
@@ -210,7 +242,7 @@ fn solve(a: &SolveArgs) -> Result<()> {
     }
     say(q, &wrote);
     say(q, &format!("caution {CAUTION}"));
-    Ok(())
+    Ok(true)
 }
 
 #[allow(clippy::print_stdout)]
