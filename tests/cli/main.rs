@@ -7,5 +7,6 @@ mod bad;
 mod batch;
 mod behaviour;
 mod cases;
+mod hostile;
 mod outside;
 mod util;
