@@ -161,3 +161,69 @@ pub fn prepare(bytes: &[u8], job: &Job) -> Result<(Outcome, Plan), Error> {
     let (plan, summary) = plan(&file, &additions, &job.layers)?;
     Ok((Outcome { reading, solution, placement, summary }, plan))
 }
+
+#[cfg(test)]
+mod tests {
+    use std::fmt::Write as _;
+
+    use proptest::prelude::*;
+
+    use super::*;
+
+    /// A minimal R12 drawing: supports at (0, 0) and (`span`, `dy`), vertical
+    /// loads `(x, w)` with labels beside them.
+    fn drawing(span: f64, dy: f64, loads: &[(f64, f64)]) -> String {
+        let mut e =
+            format!("0\nPOINT\n8\nSUPPORTS\n10\n0.0\n20\n0.0\n0\nPOINT\n8\nSUPPORTS\n10\n{span:?}\n20\n{dy:?}\n");
+        for (x, w) in loads {
+            let _ = write!(e, "0\nLINE\n8\nLOADS\n10\n{x:?}\n20\n-1.0\n11\n{x:?}\n21\n-2.0\n");
+            let _ = write!(e, "0\nTEXT\n8\nLOADS\n10\n{:?}\n20\n-1.5\n40\n0.001\n1\n{w:?} kN\n", x + 0.01);
+        }
+        format!(
+            "0\nSECTION\n2\nHEADER\n9\n$ACADVER\n1\nAC1009\n0\nENDSEC\n0\nSECTION\n2\nENTITIES\n{e}0\nENDSEC\n0\nEOF\n"
+        )
+    }
+
+    fn job(sag: f64) -> Job {
+        Job {
+            read: ReadOptions::default(),
+            form: Form::Cable,
+            given: vec![Given::Sag(LengthValue { value: sag, unit: None })],
+            layout: LayoutOptions::default(),
+            force_scale: None,
+            layers: OutputLayers::default(),
+        }
+    }
+
+    proptest! {
+        #![proptest_config(ProptestConfig::with_cases(48))]
+
+        /// Solving the tool's own output again gives the same profile, and
+        /// every node is in equilibrium (property test; our own invariants).
+        #[test]
+        fn solving_the_output_again_gives_the_same_profile(
+            span in 10.0..200.0f64,
+            dy in -20.0..20.0f64,
+            weights in prop::collection::vec(1.0..100.0f64, 1..25),
+            sag_ratio in 0.02..0.3f64,
+        ) {
+            let n = weights.len();
+            // Spread the loads unevenly but well apart (labels stay clear).
+            let loads: Vec<(f64, f64)> = weights
+                .iter()
+                .enumerate()
+                .map(|(k, w)| (span * (k as f64 + 0.5 + 0.3 * ((k * 7919) % 5) as f64 / 5.0) / (n as f64 + 0.6), (w * 100.0).round() / 100.0))
+                .collect();
+            let input = drawing(span, dy, &loads);
+            let job = job(span * sag_ratio);
+            let mut first = Vec::new();
+            let a = run(input.as_bytes(), &job, &mut first).unwrap();
+            prop_assert!(a.solution.checks.equilibrium <= 1e-9);
+            prop_assert!(a.solution.checks.closed_form.is_some_and(|e| e <= 1e-9));
+            let mut second = Vec::new();
+            let b = run(&first, &job, &mut second).unwrap();
+            prop_assert_eq!(&a.solution.nodes, &b.solution.nodes);
+            prop_assert_eq!(a.summary.added, b.summary.replaced);
+        }
+    }
+}
