@@ -6,7 +6,7 @@ use std::ops::Range;
 use kurbo::{Affine, Point, Rect, Vec2};
 
 use super::extents::Bounds;
-use super::pairs::{Format, Pair, Pairs};
+use super::pairs::{Format, Kind, Pair, Pairs, kind_of};
 use super::text::TextEncoding;
 use super::{DxfError, Release};
 
@@ -208,6 +208,7 @@ impl<'a> Cursor<'a> {
 
     /// The next pair of the current object: `None` at the next object's
     /// `0` pair (left for the next call of [`Cursor::next`]) or at the end.
+    #[inline(always)]
     fn next_in_object(&mut self) -> Result<Option<Pair<'a>>, DxfError> {
         let p = match self.peeked.take() {
             Some(p) => p,
@@ -820,10 +821,14 @@ impl Scanner<'_> {
         };
         let ctx = EntityContext { options: self.options, blocks: &self.resolved, encoding: file.encoding };
         let bytes = file.bytes;
-        let split = if file.format == Format::Ascii && bytes.len() - body >= self.options.parallel_from {
-            ascii_section_end(bytes, body).and_then(|end| ascii_entity_boundary(bytes, body + (end - body) / 2, end))
-        } else {
+        let split = if bytes.len() - body < self.options.parallel_from {
             None
+        } else {
+            match file.format {
+                Format::Ascii => ascii_section_end(bytes, body)
+                    .and_then(|end| ascii_entity_boundary(bytes, body + (end - body) / 2, end)),
+                Format::Binary { wide_codes } => binary_entity_boundary(bytes, wide_codes, body),
+            }
         };
         let (part, end) = match split {
             Some(mid) => {
@@ -1014,6 +1019,54 @@ fn ascii_section_end(bytes: &[u8], from: usize) -> Option<usize> {
     None
 }
 
+/// Where to split a binary ENTITIES section starting at `body`: the first
+/// entity (not a sub-entity) past the middle of what follows, found by
+/// skimming the pairs — each code's value has a known size, or ends at a
+/// zero byte for strings — without reading any value. Binary values can
+/// hold any bytes, so unlike ASCII no pattern can be searched for. `None`
+/// when the section ends first (or the bytes are damaged: the full scan
+/// will say where).
+fn binary_entity_boundary(bytes: &[u8], wide: bool, body: usize) -> Option<usize> {
+    let target = body + (bytes.len() - body) / 2;
+    let mut pos = body;
+    loop {
+        let start = pos;
+        let code = if wide {
+            let b = bytes.get(pos..pos + 2)?;
+            pos += 2;
+            i32::from(i16::from_le_bytes([b[0], b[1]]))
+        } else {
+            let b = *bytes.get(pos)?;
+            pos += 1;
+            if b == 255 {
+                let e = bytes.get(pos..pos + 2)?;
+                pos += 2;
+                i32::from(i16::from_le_bytes([e[0], e[1]]))
+            } else {
+                i32::from(b)
+            }
+        };
+        let value = pos;
+        pos += match kind_of(code) {
+            Kind::Text => memchr::memchr(0, bytes.get(pos..)?)? + 1,
+            Kind::Chunk => 1 + usize::from(*bytes.get(pos)?),
+            Kind::Int8 => 1,
+            Kind::Int16 => 2,
+            Kind::Int32 => 4,
+            Kind::Double | Kind::Int64 => 8,
+        };
+        if code == 0 {
+            let name = bytes.get(value..pos - 1)?;
+            if name == b"ENDSEC" || name == b"EOF" {
+                return None;
+            }
+            if start >= target && !matches!(name, b"VERTEX" | b"ATTRIB" | b"SEQEND") {
+                return Some(start);
+            }
+        }
+    }
+}
+
 /// The start of the first entity at or after `from` (and before `end`)
 /// that is not a sub-entity (VERTEX, ATTRIB, SEQEND), in ASCII DXF: a line
 /// reading `0` followed by a line that is not a number is a `0` pair, for
@@ -1076,6 +1129,36 @@ mod tests {
         assert_eq!(one.max_handle, two.max_handle);
         assert_eq!(one.entities_end, two.entities_end);
         assert_eq!(one.entities.len(), 100);
+    }
+
+    #[test]
+    fn a_binary_section_splits_at_an_entity() {
+        use crate::dxf::{Encoder, TextEncoding};
+        let mut e = Encoder::new(Format::Binary { wide_codes: true }, TextEncoding::Utf8, "\n");
+        e.text(0, "SECTION").text(2, "ENTITIES");
+        for k in 0..40 {
+            e.text(0, "LINE")
+                .text(8, "LOADS")
+                .real(10, f64::from(k))
+                .real(20, 0.0)
+                .real(11, f64::from(k))
+                .real(21, 1.0);
+            e.text(0, "POLYLINE").text(8, "X").int(66, 1).text(0, "VERTEX").real(10, 0.0).text(0, "SEQEND");
+        }
+        e.text(0, "ENDSEC").text(0, "EOF");
+        let mut bytes = crate::dxf::BINARY_SENTINEL.to_vec();
+        bytes.extend(e.take());
+        let body = crate::dxf::BINARY_SENTINEL.len() + 2 + 8 + 2 + 9;
+        let split = binary_entity_boundary(&bytes, true, body).unwrap();
+        assert!(split > body + (bytes.len() - body) / 2 - 1);
+        let mut p = Pairs::at(&bytes, Format::Binary { wide_codes: true }, split);
+        let head = p.next_pair().unwrap().unwrap();
+        assert!(head.code == 0 && (head.is("LINE") || head.is("POLYLINE")), "{:?}", head.raw);
+        let opts = ScanOptions { keep_layers: vec!["LOADS".into()], ..ScanOptions::default() };
+        let one = File::scan(&bytes, &opts).unwrap();
+        let two = File::scan(&bytes, &ScanOptions { parallel_from: 0, ..opts }).unwrap();
+        assert_eq!(one.entities, two.entities);
+        assert_eq!(one.entities.len(), 40);
     }
 
     #[test]

@@ -304,6 +304,7 @@ impl<'a> Pairs<'a> {
         Ok(Some(Pair { code, raw, start, end: self.pos, value: (value_start, value_start + raw.len()), binary: false }))
     }
 
+    #[inline]
     fn next_binary(&mut self, wide: bool) -> Result<Option<Pair<'a>>, DxfError> {
         let bytes = self.bytes;
         let start = self.pos;
