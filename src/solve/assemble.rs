@@ -35,11 +35,13 @@ pub(crate) fn build(
         .enumerate()
         .map(|(k, v)| {
             let mut p = frame.global(*v);
-            // Exact x where the drawing fixes it: supports and vertical loads.
+            // Exact coordinates where the drawing fixes them: support points
+            // (both x and y: the construction lands on them only to
+            // round-off), tower axes and vertical loads (x).
             if k == 0 {
-                p.x = structure.left().x();
+                p = structure.left().fixed_point().unwrap_or(Point::new(structure.left().x(), p.y));
             } else if k == n + 1 {
-                p.x = structure.right().x();
+                p = structure.right().fixed_point().unwrap_or(Point::new(structure.right().x(), p.y));
             } else if loads[k - 1].is_vertical() {
                 p.x = loads[k - 1].anchor.x;
             }

@@ -9,4 +9,5 @@ mod behaviour;
 mod cases;
 mod hostile;
 mod outside;
+mod roundtrip;
 mod util;
