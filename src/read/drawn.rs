@@ -188,16 +188,16 @@ pub fn drawn(file: &File<'_>, e: &EntityRef, tolerance: f64) -> Drawn {
         "ARC" => {
             let c = [g.f64(10).unwrap_or(0.0), g.f64(20).unwrap_or(0.0)];
             let r = g.f64(40).unwrap_or(0.0).abs();
-            let a0 = g.f64(50).unwrap_or(0.0).to_radians();
-            let mut a1 = g.f64(51).unwrap_or(0.0).to_radians();
+            // At most one turn, whatever the angles say.
+            let a0 = g.f64(50).unwrap_or(0.0).rem_euclid(360.0).to_radians();
+            let mut a1 = g.f64(51).unwrap_or(0.0).rem_euclid(360.0).to_radians();
             if a1 <= a0 {
                 a1 += std::f64::consts::TAU;
             }
             let arc = Arc::new((c[0], c[1]), (r, r), a0, a1 - a0, 0.0);
-            let pts: Vec<Point> = flatten(&arc.into_path(tolerance), tolerance)
-                .into_iter()
-                .map(|p| ocs_to_wcs(n, [p.x, p.y, 0.0]))
-                .collect();
+            let tol = arc_tolerance(tolerance, r);
+            let pts: Vec<Point> =
+                flatten(&arc.into_path(tol), tol).into_iter().map(|p| ocs_to_wcs(n, [p.x, p.y, 0.0])).collect();
             Drawn::Path(pts)
         }
         other => Drawn::Other(other.to_string()),
@@ -257,7 +257,8 @@ fn flatten_bulges(verts: &[(Point, f64)], closed: bool, flip: f64, tolerance: f6
         let c = m + normal * h;
         let start = (a - c).atan2();
         let arc = Arc::new(c, (r.abs(), r.abs()), start, theta, 0.0);
-        let pts = flatten(&arc.into_path(tolerance), tolerance);
+        let tol = arc_tolerance(tolerance, r.abs());
+        let pts = flatten(&arc.into_path(tol), tol);
         out.extend(pts.into_iter().skip(1));
         // Land exactly on the vertex.
         if let Some(last) = out.last_mut() {
@@ -265,6 +266,15 @@ fn flatten_bulges(verts: &[(Point, f64)], closed: bool, flip: f64, tolerance: f6
         }
     }
     out
+}
+
+/// The chord tolerance for an arc of radius `r`: the drawing's, but never
+/// finer than 2·10⁻⁶ of the radius, which bounds a full turn to about 1,600
+/// pieces whatever the radius (an arc of absurd radius must not exhaust
+/// memory).
+fn arc_tolerance(tolerance: f64, r: f64) -> f64 {
+    let t = tolerance.max(r * 2e-6);
+    if t.is_finite() && t > 0.0 { t } else { 1.0 }
 }
 
 /// The points of a path flattened to straight pieces within `tolerance`.

@@ -12,19 +12,26 @@ use crate::layout::{DimStyle, HAlign, Shape, Text, VAlign};
 #[derive(Clone, Debug)]
 pub struct Handles {
     next: Option<u64>,
+    /// Set when the 64-bit handle space ran out.
+    pub exhausted: bool,
 }
 
 impl Handles {
     /// Handles starting at `seed`; `None` for a drawing without handles.
     #[must_use]
     pub fn new(seed: Option<u64>) -> Handles {
-        Handles { next: seed }
+        Handles { next: seed, exhausted: false }
     }
 
-    /// The next handle, if the drawing uses handles.
+    /// The next handle, if the drawing uses handles. Past the last handle
+    /// there is none: [`Handles::exhausted`] is set, and the caller refuses
+    /// the output.
     pub fn take(&mut self) -> Option<u64> {
         let h = self.next?;
-        self.next = Some(h + 1);
+        match h.checked_add(1) {
+            Some(n) => self.next = Some(n),
+            None => self.exhausted = true,
+        }
         Some(h)
     }
 

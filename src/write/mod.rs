@@ -109,6 +109,12 @@ pub struct Summary {
     pub blocks: usize,
 }
 
+/// A table's entry count (group code 70, a 16-bit integer in the DXF
+/// reference), kept in range whatever the drawing held.
+fn table_count(n: i64) -> i64 {
+    n.clamp(0, i64::from(i16::MAX))
+}
+
 /// One edit of the input: the bytes in `range` are replaced by `bytes`
 /// (an empty range inserts).
 struct Edit {
@@ -230,7 +236,7 @@ pub fn plan(file: &File<'_>, additions: &Additions, layers: &OutputLayers) -> Re
             .and_then(|(_, span)| std::str::from_utf8(&file.bytes[span.clone()]).ok())
             .and_then(|s| u64::from_str_radix(s.trim(), 16).ok())
             .unwrap_or(1);
-        Some(declared.max(file.max_handle + 1))
+        Some(declared.max(file.max_handle.saturating_add(1)))
     } else {
         None
     };
@@ -267,7 +273,7 @@ pub fn plan(file: &File<'_>, additions: &Additions, layers: &OutputLayers) -> Re
         }
         push(table.end..table.end, pen.enc.take());
         if let Some((count, span)) = &table.count {
-            push(span.clone(), pen.enc.value_int(70, count + added).to_vec());
+            push(span.clone(), pen.enc.value_int(70, table_count(count.saturating_add(added))));
         }
     } else if modern {
         return Err(WriteError::Structure("it has no LAYER table".into()));
@@ -284,7 +290,7 @@ pub fn plan(file: &File<'_>, additions: &Additions, layers: &OutputLayers) -> Re
             pen.dim_style_record(t.handle, &additions.dim_style);
             push(t.end..t.end, pen.enc.take());
             if let Some((count, span)) = &t.count {
-                push(span.clone(), pen.enc.value_int(70, count + 1));
+                push(span.clone(), pen.enc.value_int(70, table_count(count.saturating_add(1))));
             }
         }
         let mut next_d = file
@@ -295,13 +301,18 @@ pub fn plan(file: &File<'_>, additions: &Additions, layers: &OutputLayers) -> Re
             .filter_map(|n| n.parse::<u64>().ok())
             .max()
             .unwrap_or(0)
-            + 1;
+            .checked_add(1)
+            .ok_or_else(|| {
+                WriteError::Structure("its anonymous block numbers are used up (*D18446744073709551615)".into())
+            })?;
         let mut records = Vec::new();
         let mut blocks = Vec::new();
         for shape in &dims {
             let Shape::Dimension(d) = shape else { continue };
             let name = format!("*D{next_d}");
-            next_d += 1;
+            next_d = next_d
+                .checked_add(1)
+                .ok_or_else(|| WriteError::Structure("its anonymous block numbers are used up".into()))?;
             let record = if modern {
                 let t = record_table.ok_or_else(|| WriteError::Structure("it has no BLOCK_RECORD table".into()))?;
                 let h = pen.block_record(t.handle, &name);
@@ -318,8 +329,8 @@ pub fn plan(file: &File<'_>, additions: &Additions, layers: &OutputLayers) -> Re
         if modern && let Some(t) = record_table {
             push(t.end..t.end, records);
             if let Some((count, span)) = &t.count {
-                let n = count - removed_records + block_names.len() as i64;
-                push(span.clone(), pen.enc.value_int(70, n));
+                let n = count.saturating_sub(removed_records).saturating_add(block_names.len() as i64);
+                push(span.clone(), pen.enc.value_int(70, table_count(n)));
             }
         }
         match (file.blocks_end, file.entities_start) {
@@ -340,7 +351,7 @@ pub fn plan(file: &File<'_>, additions: &Additions, layers: &OutputLayers) -> Re
         && removed_records > 0
         && let Some((count, span)) = &t.count
     {
-        push(span.clone(), pen.enc.value_int(70, count - removed_records));
+        push(span.clone(), pen.enc.value_int(70, table_count(count.saturating_sub(removed_records))));
     }
 
     // Entities.
@@ -373,6 +384,11 @@ pub fn plan(file: &File<'_>, additions: &Additions, layers: &OutputLayers) -> Re
         }
     }
 
+    if handles.exhausted {
+        return Err(WriteError::Structure(
+            "its handles run up to FFFFFFFFFFFFFFFF, so none are left for the additions".into(),
+        ));
+    }
     Ok((splice(file.bytes.len(), edits), summary))
 }
 

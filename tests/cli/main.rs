@@ -9,5 +9,6 @@ mod behaviour;
 mod cases;
 mod hostile;
 mod outside;
+mod regressions;
 mod roundtrip;
 mod util;
