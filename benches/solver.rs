@@ -56,7 +56,7 @@ fn structure(n: usize, inclined: bool) -> Structure {
         Support::Point { at: Point::new(SPAN, 4.0), origin: origin(SPAN, 4.0) },
     ];
     let units = Units { length: LengthUnit::Metre, force: ForceUnit::Kilonewton };
-    Structure::new(units, supports, loads, None, "SUPPORTS", "LOADS").expect("a valid structure")
+    Structure::new(units, supports, loads, Vec::new(), None, "SUPPORTS").expect("a valid structure")
 }
 
 fn solver(c: &mut Criterion) {

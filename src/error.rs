@@ -17,6 +17,9 @@ pub enum Error {
     /// The drawing does not describe a structure.
     #[error(transparent)]
     Read(#[from] ReadError),
+    /// The structure read cannot be solved as it is.
+    #[error(transparent)]
+    Model(#[from] crate::model::ModelError),
     /// A condition given by the user cannot be used as given.
     #[error("{0}")]
     Condition(String),

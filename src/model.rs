@@ -140,6 +140,50 @@ impl Load {
     }
 }
 
+/// A vertical load spread over a stretch of the span, per horizontal
+/// length, varying linearly from `w0` at `x0` to `w1` at `x1` (a uniform
+/// load has `w0 == w1`). Acts downward; in force units per drawing length
+/// unit.
+#[derive(Clone, Debug, PartialEq)]
+pub struct DistributedLoad {
+    /// Left end of the stretch.
+    pub x0: f64,
+    /// Right end of the stretch (> `x0`).
+    pub x1: f64,
+    /// Intensity at `x0` (≥ 0).
+    pub w0: f64,
+    /// Intensity at `x1` (≥ 0).
+    pub w1: f64,
+    /// Where it was drawn.
+    pub origin: Origin,
+}
+
+impl DistributedLoad {
+    /// The intensity at `x` (zero outside the stretch).
+    #[must_use]
+    pub fn at(&self, x: f64) -> f64 {
+        if x < self.x0 || x > self.x1 {
+            0.0
+        } else {
+            self.w0 + (self.w1 - self.w0) * (x - self.x0) / (self.x1 - self.x0)
+        }
+    }
+
+    /// The resultant: (w0 + w1)/2 · (x1 − x0).
+    #[must_use]
+    pub fn total(&self) -> f64 {
+        0.5 * (self.w0 + self.w1) * (self.x1 - self.x0)
+    }
+
+    /// The x of the resultant (the trapezoid's centroid).
+    #[must_use]
+    pub fn centroid(&self) -> f64 {
+        let l = self.x1 - self.x0;
+        let sum = self.w0 + self.w1;
+        if sum == 0.0 { self.x0 + l / 2.0 } else { self.x0 + l * (self.w0 + 2.0 * self.w1) / (3.0 * sum) }
+    }
+}
+
 /// The deck: the line the hangers or posts run to, as drawn segments.
 #[derive(Clone, Debug, Default, PartialEq)]
 pub struct Deck {
@@ -173,6 +217,7 @@ pub struct Structure {
     left: Support,
     right: Support,
     loads: Vec<Load>,
+    distributed: Vec<DistributedLoad>,
     deck: Option<Deck>,
 }
 
@@ -251,6 +296,28 @@ pub enum ModelError {
         /// Their common x.
         x: String,
     },
+    /// A distributed load that cannot be right.
+    #[error("the distributed load of {origin} {problem}")]
+    Stretch {
+        /// The load line.
+        origin: String,
+        /// What is wrong and what to do.
+        problem: String,
+    },
+    /// Two distributed loads over the same stretch.
+    #[error(
+        "the distributed loads of {a} and {b} overlap from x = {from} to x = {to}; draw one stretch per part of the span, with the summed intensity"
+    )]
+    Overlap {
+        /// First load.
+        a: String,
+        /// Second load.
+        b: String,
+        /// Start of the overlap.
+        from: String,
+        /// End of the overlap.
+        to: String,
+    },
     /// A load whose line of action is horizontal and so never meets the profile in one point.
     #[error(
         "the load of {origin} is horizontal; a load's line of action must cross the span (draw it steeper than horizontal)"
@@ -283,9 +350,9 @@ impl Structure {
         units: Units,
         supports: Vec<Support>,
         mut loads: Vec<Load>,
+        mut distributed: Vec<DistributedLoad>,
         deck: Option<Deck>,
         supports_layer: &str,
-        loads_layer: &str,
     ) -> Result<Structure, ModelError> {
         for s in &supports {
             match s {
@@ -318,9 +385,6 @@ impl Structure {
                 x: fmt_num(left.x()),
             });
         }
-        if loads.is_empty() {
-            return Err(ModelError::NoLoads { layer: loads_layer.to_string() });
-        }
         for l in &loads {
             check_finite("the x", l.anchor.x, &l.origin)?;
             check_finite("the y", l.anchor.y, &l.origin)?;
@@ -352,7 +416,49 @@ impl Structure {
                 });
             }
         }
-        Ok(Structure { units, left, right, loads, deck })
+        for d in &distributed {
+            for (what, v) in [("the start", d.x0), ("the end", d.x1), ("the intensity", d.w0), ("the intensity", d.w1)]
+            {
+                check_finite(what, v, &d.origin)?;
+            }
+            if !(d.x1 > d.x0) {
+                return Err(ModelError::Stretch { origin: d.origin.to_string(), problem: "has no length".into() });
+            }
+            if d.w0 < 0.0 || d.w1 < 0.0 || d.w0 + d.w1 == 0.0 {
+                return Err(ModelError::Stretch {
+                    origin: d.origin.to_string(),
+                    problem: format!(
+                        "has intensities {} and {}; a distributed load must be downward and not zero",
+                        fmt_num(d.w0),
+                        fmt_num(d.w1)
+                    ),
+                });
+            }
+            if d.x0 < left.x() || d.x1 > right.x() {
+                return Err(ModelError::Stretch {
+                    origin: d.origin.to_string(),
+                    problem: format!(
+                        "runs from x = {} to x = {}, beyond the span from x = {} to x = {}; loads must act between the supports",
+                        fmt_num(d.x0),
+                        fmt_num(d.x1),
+                        fmt_num(left.x()),
+                        fmt_num(right.x())
+                    ),
+                });
+            }
+        }
+        distributed.sort_by(|a, b| a.x0.total_cmp(&b.x0));
+        for pair in distributed.windows(2) {
+            if pair[1].x0 < pair[0].x1 {
+                return Err(ModelError::Overlap {
+                    a: pair[0].origin.to_string(),
+                    b: pair[1].origin.to_string(),
+                    from: fmt_num(pair[1].x0),
+                    to: fmt_num(pair[0].x1.min(pair[1].x1)),
+                });
+            }
+        }
+        Ok(Structure { units, left, right, loads, distributed, deck })
     }
 
     /// The units every quantity is in.
@@ -377,6 +483,27 @@ impl Structure {
     #[must_use]
     pub fn loads(&self) -> &[Load] {
         &self.loads
+    }
+
+    /// The distributed loads, left to right, not overlapping.
+    #[must_use]
+    pub fn distributed(&self) -> &[DistributedLoad] {
+        &self.distributed
+    }
+
+    /// True when there is any load at all (point or distributed).
+    #[must_use]
+    pub fn has_loads(&self) -> bool {
+        !self.loads.is_empty() || !self.distributed.is_empty()
+    }
+
+    /// The same structure with other loads (used to carry distributed loads
+    /// to hangers).
+    #[must_use]
+    pub fn with_loads(&self, loads: Vec<Load>, distributed: Vec<DistributedLoad>) -> Structure {
+        let mut loads = loads;
+        loads.sort_by(|a, b| a.anchor.x.total_cmp(&b.anchor.x));
+        Structure { loads, distributed, ..self.clone() }
     }
 
     /// The deck, if one was drawn.
@@ -421,9 +548,9 @@ mod tests {
             units(),
             vec![pt(10.0, 0.0), pt(0.0, 1.0)],
             vec![Load::vertical(7.0, 1.0, o(7.0, 0.0)), Load::vertical(3.0, 2.0, o(3.0, 0.0))],
+            Vec::new(),
             None,
             "S",
-            "L",
         )
         .unwrap();
         assert_eq!(s.left().x(), 0.0);
@@ -437,9 +564,9 @@ mod tests {
             units(),
             vec![pt(0.0, 0.0), pt(5.0, 0.0), pt(10.0, 0.0)],
             vec![Load::vertical(3.0, 2.0, o(3.0, 0.0))],
+            Vec::new(),
             None,
             "SUPPORTS",
-            "LOADS",
         )
         .unwrap_err();
         let m = e.to_string();
@@ -453,9 +580,9 @@ mod tests {
             units(),
             vec![pt(0.0, 0.0), pt(10.0, 0.0)],
             vec![Load::vertical(12.0, 2.0, o(12.0, 0.0))],
+            Vec::new(),
             None,
             "S",
-            "L",
         )
         .unwrap_err();
         assert!(matches!(e, ModelError::OutsideSpan { .. }));
@@ -467,9 +594,9 @@ mod tests {
             units(),
             vec![pt(0.0, f64::NAN), pt(10.0, 0.0)],
             vec![Load::vertical(2.0, 2.0, o(2.0, 0.0))],
+            Vec::new(),
             None,
             "S",
-            "L",
         )
         .unwrap_err();
         assert!(matches!(e, ModelError::NotFinite { .. }));

@@ -9,6 +9,7 @@ use kurbo::Point;
 use crate::dxf::File;
 use crate::error::Error;
 use crate::layout::{LayoutOptions, Placement, layout};
+use crate::model::ModelError;
 use crate::read::{ReadOptions, Reading, read, scan_options};
 use crate::solve::{Condition, Form, Solution, solve};
 use crate::units::{ForceUnit, LengthUnit, Units};
@@ -149,6 +150,9 @@ pub fn run(bytes: &[u8], job: &Job, out: &mut dyn Write) -> Result<Outcome, Erro
 pub fn prepare(bytes: &[u8], job: &Job) -> Result<(Outcome, Plan), Error> {
     let file = File::scan(bytes, &scan_options(&job.read.layers, job.layers.all()))?;
     let reading = read(&file, &job.read)?;
+    if !reading.structure.has_loads() {
+        return Err(ModelError::NoLoads { layer: job.read.layers.loads.clone() }.into());
+    }
     let conditions = conditions(&job.given, job.form, reading.structure.units())?;
     let mut solution = solve(&reading.structure, job.form, &conditions)?;
     solution.warnings.extend(sanity(&reading, &conditions));

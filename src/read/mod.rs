@@ -394,7 +394,7 @@ pub fn read(file: &File<'_>, options: &ReadOptions) -> Result<Reading, ReadError
     let deck = (!deck.segments.is_empty()).then_some(deck);
 
     let units = Units { length, force: force_unit };
-    let structure = Structure::new(units, supports, loads, deck, &layers.supports, &layers.loads)?;
+    let structure = Structure::new(units, supports, loads, Vec::new(), deck, &layers.supports)?;
     reads.sort_by(|a, b| a.anchor.x.total_cmp(&b.anchor.x));
     Ok(Reading {
         structure,

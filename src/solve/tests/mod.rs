@@ -46,7 +46,7 @@ pub(super) fn m_kn() -> Units {
 }
 
 pub(super) fn structure(units: Units, left: Support, right: Support, loads: Vec<Load>) -> Structure {
-    Structure::new(units, vec![left, right], loads, None, "SUPPORTS", "LOADS").expect("test structure is valid")
+    Structure::new(units, vec![left, right], loads, Vec::new(), None, "SUPPORTS").expect("test structure is valid")
 }
 
 pub(super) fn solved(s: &Structure, form: Form, c: &[Condition]) -> Solution {
