@@ -421,7 +421,7 @@ impl Structure {
             {
                 check_finite(what, v, &d.origin)?;
             }
-            if !(d.x1 > d.x0) {
+            if d.x1 <= d.x0 {
                 return Err(ModelError::Stretch { origin: d.origin.to_string(), problem: "has no length".into() });
             }
             if d.w0 < 0.0 || d.w1 < 0.0 || d.w0 + d.w1 == 0.0 {
