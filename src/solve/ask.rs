@@ -121,6 +121,12 @@ pub(crate) fn gather(structure: &Structure, form: Form, given: &[Condition]) -> 
             Condition::Sag(f) => Cond::Sag(f),
             Condition::MaxForce(t) => Cond::MaxForce(t),
             Condition::LevelAt(x) => Cond::LevelAt(x),
+            Condition::Length(_) | Condition::UnstressedLength(_) => {
+                return Err(SolveError::BadValue {
+                    condition: "--length".into(),
+                    problem: "a length condition needs the continuous-load solver".into(),
+                });
+            }
         };
         check_value(structure, &namer, &c)?;
         conds.push(c);

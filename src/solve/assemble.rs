@@ -9,7 +9,7 @@ use super::construction::{Misshapen, Polygon, check_shape, construct};
 use super::frame::{Frame, Params};
 use super::inclined::broken;
 use super::residual::{max_ray, relative, sag};
-use super::types::{Checks, Form, Sag, Segment, Solution, SolveError, TowerFound};
+use super::types::{Checks, Form, NodeKind, Peak, Sag, Segment, Solution, SolveError, TowerFound};
 use crate::model::{Structure, Support, fmt_num};
 
 /// Self-check figures above this earn a warning.
@@ -78,6 +78,17 @@ pub(crate) fn build(
     }
     let load_line: Vec<Point> = frame.load_line.iter().map(|a| a.to_point()).collect();
     let pole = Point::new(params.ox, params.oy);
+    let node_kinds: Vec<NodeKind> =
+        (0..n + 2).map(|k| if k == 0 || k == n + 1 { NodeKind::Support } else { NodeKind::Load(k - 1) }).collect();
+    let profile_length = segments.iter().map(|g| g.length).sum();
+    let max_segment = max_ray(&poly);
+    // Under point loads the largest force is in a segment; name its end
+    // nearer the larger reaction.
+    let peak = {
+        let (a, b) = (nodes[max_segment], nodes[max_segment + 1]);
+        let at = if rays[0].hypot() >= rays[n].hypot() { a } else { b };
+        Peak { force: segments[max_segment].force.abs(), at }
+    };
     Ok(Solution {
         form: namer.form,
         closing_point: closing_point(pole, load_line[0], load_line[n], last - first),
@@ -88,9 +99,15 @@ pub(crate) fn build(
         reactions: [-rays[0], rays[n]],
         thrust,
         sag: Sag { value: sag_value, x: at.x, chord_y, profile_y: at.y },
-        max_segment: max_ray(&poly),
+        max_segment,
         towers,
         conditions: conds.iter().map(|c| c.used(namer.form)).collect(),
+        node_kinds,
+        profile_length,
+        unstressed_length: None,
+        iterations: 0,
+        peak,
+        at_supports: [0.0, 0.0],
         checks,
         warnings,
     })

@@ -58,6 +58,64 @@ pub enum Condition {
     /// The profile is level (zero slope) at this x: the low point of a cable
     /// or the crown of an arch lies in the segment that spans x.
     LevelAt(f64),
+    /// The length of the profile between the supports, S > chord.
+    Length(f64),
+    /// The unstressed length of the cable (needs [`SolveOptions::axial_stiffness`]).
+    UnstressedLength(f64),
+}
+
+/// Loads and tolerances beyond what the structure holds.
+#[derive(Clone, Copy, Debug, PartialEq)]
+pub struct SolveOptions {
+    /// Self-weight per unit length of the profile (force per length unit),
+    /// acting along the profile's own length — so the load depends on the
+    /// shape. With an axial stiffness it is per unit unstressed length.
+    pub self_weight: Option<f64>,
+    /// Axial stiffness EA (force), for the unstressed length of a cable.
+    pub axial_stiffness: Option<f64>,
+    /// Largest distance (drawing units) between the drawn profile and the
+    /// exact curve where loads are continuous; `None`: the span / 10,000.
+    pub chord_tolerance: Option<f64>,
+    /// The self-weight iteration stops when no panel load changes by more
+    /// than this fraction of the total load (default 1e-13).
+    pub iteration_tolerance: f64,
+    /// Most self-weight iterations (default 200).
+    pub max_iterations: usize,
+}
+
+impl Default for SolveOptions {
+    fn default() -> Self {
+        SolveOptions {
+            self_weight: None,
+            axial_stiffness: None,
+            chord_tolerance: None,
+            iteration_tolerance: 1e-13,
+            max_iterations: 200,
+        }
+    }
+}
+
+/// What a node of the polygon is.
+#[derive(Clone, Copy, Debug, PartialEq, Eq, Serialize)]
+#[serde(rename_all = "lowercase")]
+pub enum NodeKind {
+    /// A support (first and last node).
+    Support,
+    /// Where point load `k` (index into the structure's loads) acts.
+    Load(usize),
+    /// A panel point of a continuous load (distributed load, self-weight):
+    /// the nodal loads there are statically equivalent to the continuous
+    /// load, so the node lies exactly on the continuous funicular.
+    Panel,
+}
+
+/// The largest force along the profile and where it acts.
+#[derive(Clone, Copy, Debug, PartialEq)]
+pub struct Peak {
+    /// Its magnitude (≥ every segment's force).
+    pub force: f64,
+    /// Where.
+    pub at: Point,
 }
 
 /// A condition as the solver used it, for reports.
@@ -158,6 +216,21 @@ pub struct Solution {
     pub towers: Vec<TowerFound>,
     /// The conditions, as used.
     pub conditions: Vec<UsedCondition>,
+    /// What each node is (as many as `nodes`).
+    pub node_kinds: Vec<NodeKind>,
+    /// Length of the profile: of the exact curve where loads are continuous,
+    /// else of the polygon.
+    pub profile_length: f64,
+    /// Unstressed length, when an axial stiffness is given.
+    pub unstressed_length: Option<f64>,
+    /// Self-weight iterations taken (0 without self-weight).
+    pub iterations: usize,
+    /// The largest force along the profile (at a support, for a cable under
+    /// downward loads) — for continuous loads larger than any segment's.
+    pub peak: Peak,
+    /// Load carried straight into each support by continuous loads at the
+    /// ends (already in `reactions`, not in the polygon's load line).
+    pub at_supports: [f64; 2],
     /// Self-checks of the result.
     pub checks: Checks,
     /// Things the user should know (a second solution exists, …).
@@ -171,10 +244,10 @@ impl Solution {
         self.segments[self.max_segment].force.abs()
     }
 
-    /// Sum of the segment lengths.
+    /// Length of the profile (see [`Solution::profile_length`]).
     #[must_use]
     pub fn length(&self) -> f64 {
-        self.segments.iter().map(|s| s.length).sum()
+        self.profile_length
     }
 }
 
