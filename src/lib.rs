@@ -41,6 +41,7 @@
 //! # Ok::<(), Box<dyn std::error::Error>>(())
 //! ```
 
+pub mod carry;
 pub mod dxf;
 pub mod error;
 pub mod layout;

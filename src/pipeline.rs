@@ -6,6 +6,7 @@ use std::io::Write;
 
 use kurbo::Point;
 
+use crate::carry::{Carried, carry};
 use crate::dxf::File;
 use crate::error::Error;
 use crate::layout::{LayoutOptions, Placement, layout};
@@ -74,6 +75,8 @@ pub struct Job {
 pub struct Outcome {
     /// What was read.
     pub reading: Reading,
+    /// The loads as carried to the hangers (the structure solved).
+    pub carried: Carried,
     /// The funicular.
     pub solution: Solution,
     /// Where the force diagram went.
@@ -154,16 +157,17 @@ pub fn prepare(bytes: &[u8], job: &Job) -> Result<(Outcome, Plan), Error> {
         return Err(ModelError::NoLoads { layer: job.read.layers.loads.clone() }.into());
     }
     let conditions = conditions(&job.given, job.form, reading.structure.units())?;
-    let mut solution = solve(&reading.structure, job.form, &conditions)?;
+    let carried = carry(&reading.structure, &reading.hangers);
+    let mut solution = solve(&carried.structure, job.form, &conditions)?;
     solution.warnings.extend(sanity(&reading, &conditions));
     let mut layout_options = job.layout;
     if let Some(f) = job.force_scale {
         let unit = reading.structure.units().force;
         layout_options.force_scale = Some(f.value * f.unit.map_or(1.0, |u| u.factor_to(unit)));
     }
-    let (additions, placement) = layout(&reading.structure, &solution, reading.extents, &layout_options);
+    let (additions, placement) = layout(&carried.structure, &solution, reading.extents, &layout_options);
     let (plan, summary) = plan(&file, &additions, &job.layers)?;
-    Ok((Outcome { reading, solution, placement, summary }, plan))
+    Ok((Outcome { reading, carried, solution, placement, summary }, plan))
 }
 
 #[cfg(test)]

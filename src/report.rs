@@ -19,10 +19,12 @@
 
 use serde::Serialize;
 
+use crate::carry::{Carried, Share};
 use crate::layout::Placement;
 use crate::layout::nice::member_name;
 use crate::model::Support;
-use crate::read::Reading;
+use crate::model::fmt_num;
+use crate::read::{Reading, StretchRead};
 use crate::solve::{Checks, Clearance, Solution, UsedCondition};
 use crate::units::Units;
 
@@ -132,6 +134,59 @@ pub struct SagOut {
     pub profile_y: f64,
 }
 
+/// The largest force and where.
+#[derive(Clone, Copy, Debug, PartialEq, Serialize)]
+pub struct PeakOut {
+    /// Its magnitude.
+    pub force: f64,
+    /// Where.
+    pub at: Xy,
+}
+
+/// A distributed load as read.
+#[derive(Clone, Debug, PartialEq, Serialize)]
+pub struct StretchOut {
+    /// Left end.
+    pub x0: f64,
+    /// Right end.
+    pub x1: f64,
+    /// Intensity at x0 (force units per length unit).
+    pub w0: f64,
+    /// Intensity at x1.
+    pub w1: f64,
+    /// Resultant.
+    pub total: f64,
+    /// The label as read.
+    #[serde(skip_serializing_if = "Option::is_none")]
+    pub label: Option<String>,
+    /// The intensities as written and their unit.
+    pub written: String,
+    /// The load line's handle.
+    #[serde(skip_serializing_if = "Option::is_none")]
+    pub handle: Option<String>,
+}
+
+impl From<&StretchRead> for StretchOut {
+    fn from(r: &StretchRead) -> StretchOut {
+        let unit = format!("{}/{}", r.force_unit, r.length_unit);
+        let written = if r.written.0 == r.written.1 {
+            format!("{} {unit}", fmt_num(r.written.0))
+        } else {
+            format!("{} to {} {unit}", fmt_num(r.written.0), fmt_num(r.written.1))
+        };
+        StretchOut {
+            x0: r.x0,
+            x1: r.x1,
+            w0: r.w0,
+            w1: r.w1,
+            total: 0.5 * (r.w0 + r.w1) * (r.x1 - r.x0),
+            label: r.label.clone(),
+            written,
+            handle: r.origin.handle.clone(),
+        }
+    }
+}
+
 /// A tower height found.
 #[derive(Clone, Debug, PartialEq, Serialize)]
 pub struct TowerOut {
@@ -190,6 +245,19 @@ pub struct Report {
     pub span: f64,
     /// Length of the profile.
     pub length: f64,
+    /// Unstressed length, when an axial stiffness was given.
+    #[serde(skip_serializing_if = "Option::is_none")]
+    pub unstressed_length: Option<f64>,
+    /// Self-weight iterations (0 without self-weight).
+    pub iterations: usize,
+    /// The largest force along the profile and where.
+    pub peak: PeakOut,
+    /// Distributed loads as read.
+    pub distributed: Vec<StretchOut>,
+    /// What each hanger position received from the distributed loads.
+    pub hangers: Vec<Share>,
+    /// Distributed load carried straight into the left and right supports.
+    pub to_supports: [f64; 2],
     /// Left and right support.
     pub supports: Vec<SupportOut>,
     /// Profile nodes, left support to right support.
@@ -224,8 +292,14 @@ pub struct Report {
 
 /// Builds the report.
 #[must_use]
-pub fn report(input: &str, reading: &Reading, solution: &Solution, placement: Option<&Placement>) -> Report {
-    let st = &reading.structure;
+pub fn report(
+    input: &str,
+    reading: &Reading,
+    carried: &Carried,
+    solution: &Solution,
+    placement: Option<&Placement>,
+) -> Report {
+    let st = &carried.structure;
     let n = st.loads().len();
     let pole = n + 1;
     let supports = [st.left(), st.right()]
@@ -263,6 +337,12 @@ pub fn report(input: &str, reading: &Reading, solution: &Solution, placement: Op
         thrust: solution.thrust,
         span: st.span(),
         length: solution.length(),
+        unstressed_length: solution.unstressed_length,
+        iterations: solution.iterations,
+        peak: PeakOut { force: solution.peak.force, at: solution.peak.at.into() },
+        distributed: reading.distributed.iter().map(StretchOut::from).collect(),
+        hangers: carried.shares.clone(),
+        to_supports: carried.to_supports,
         supports,
         nodes: solution.nodes.iter().map(|p| Xy::from(*p)).collect(),
         segments: solution
@@ -276,7 +356,7 @@ pub fn report(input: &str, reading: &Reading, solution: &Solution, placement: Op
             .iter()
             .enumerate()
             .map(|(k, l)| {
-                let read = reading.loads.get(k);
+                let read = reading.loads.iter().find(|r| r.origin == l.origin);
                 LoadOut {
                     node: solution.nodes[k + 1].into(),
                     force: l.force.into(),
@@ -370,7 +450,16 @@ pub struct Inspection {
     pub supports: Vec<SupportRead>,
     /// The loads, left to right.
     pub loads: Vec<LoadReadOut>,
-    /// Sum of the load magnitudes.
+    /// Distributed loads as read.
+    pub distributed: Vec<StretchOut>,
+    /// Hanger positions (x) from the hangers layer.
+    pub hanger_positions: Vec<f64>,
+    /// How the distributed loads are carried: what each hanger position
+    /// receives (empty when they stay continuous).
+    pub shares: Vec<Share>,
+    /// Distributed load carried straight into the left and right supports.
+    pub to_supports: [f64; 2],
+    /// Sum of the load magnitudes (point and distributed).
     pub total_load: f64,
     /// Number of deck segments (after flattening arcs).
     pub deck_segments: usize,
@@ -385,6 +474,7 @@ pub struct Inspection {
 #[must_use]
 pub fn inspection(input: &str, reading: &Reading) -> Inspection {
     let st = &reading.structure;
+    let carried = crate::carry::carry(st, &reading.hangers);
     let supports = [st.left(), st.right()]
         .into_iter()
         .map(|s| {
@@ -428,7 +518,12 @@ pub fn inspection(input: &str, reading: &Reading) -> Inspection {
                 handle: l.origin.handle.clone(),
             })
             .collect(),
-        total_load: st.loads().iter().map(|l| l.magnitude()).sum(),
+        distributed: reading.distributed.iter().map(StretchOut::from).collect(),
+        hanger_positions: reading.hangers.iter().map(|h| h.0).collect(),
+        shares: carried.shares.clone(),
+        to_supports: carried.to_supports,
+        total_load: st.loads().iter().map(|l| l.magnitude()).sum::<f64>()
+            + st.distributed().iter().map(crate::model::DistributedLoad::total).sum::<f64>(),
         deck_segments: st.deck().map_or(0, |d| d.segments.len()),
         extents: reading.extents.map(|r| [r.x0, r.y0, r.x1, r.y1]),
         warnings: reading.warnings.clone(),

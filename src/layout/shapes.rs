@@ -35,7 +35,7 @@ impl Role {
     pub fn key(self) -> &'static str {
         match self {
             Role::Profile => "profile",
-            Role::Hangers => "hangers",
+            Role::Hangers => "hanger-lines",
             Role::Diagram => "diagram",
             Role::Forces => "forces",
             Role::Dimensions => "dimensions",

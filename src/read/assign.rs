@@ -46,7 +46,7 @@ use thiserror::Error;
 
 use crate::model::fmt_num;
 
-use super::label::{LabelError, LabelForce, parse_force};
+use super::label::{LabelError, LabelValue, parse_label};
 
 /// Default of [`AssignTolerances::ambiguity_ratio`]: a second candidate
 /// less than 25 % farther than the first makes the choice ambiguous. Our own
@@ -111,16 +111,16 @@ pub struct LabelText {
     pub centre: Point,
     /// The text, already plain (see [`super::mtext`]).
     pub text: String,
-    /// The text read as a load.
-    pub parsed: Result<LabelForce, LabelError>,
+    /// The text read as a load (a force or a force per length).
+    pub parsed: Result<LabelValue, LabelError>,
 }
 
 impl LabelText {
-    /// A text at `centre`, read with [`parse_force`].
+    /// A text at `centre`, read with [`parse_label`].
     #[must_use]
     pub fn new(id: usize, centre: Point, text: impl Into<String>) -> LabelText {
         let text = text.into();
-        let parsed = parse_force(&text);
+        let parsed = parse_label(&text);
         LabelText { id, centre, text, parsed }
     }
 }
@@ -132,8 +132,8 @@ pub struct Match {
     pub line: usize,
     /// The label's id.
     pub label: usize,
-    /// The label's force.
-    pub force: LabelForce,
+    /// What the label says.
+    pub value: LabelValue,
     /// Distance from the label's centre to the line.
     pub distance: f64,
 }
@@ -316,13 +316,13 @@ pub fn assign(
                 });
             }
         }
-        let force = match &text.parsed {
-            Ok(f) => *f,
+        let value = match &text.parsed {
+            Ok(v) => *v,
             Err(error) => {
                 return Err(AssignError::Unparsable { line: line.id, label: text.id, error: error.clone() });
             }
         };
-        matches.push(Match { line: line.id, label: text.id, force, distance: d1 });
+        matches.push(Match { line: line.id, label: text.id, value, distance: d1 });
         *taken = Some(text.id);
         if let Some(c) = chosen.get_mut(j) {
             *c = true;
@@ -487,8 +487,8 @@ mod tests {
         let a = assign(&lines, &labels, tol()).unwrap();
         let pairs: Vec<(usize, usize)> = a.matches.iter().map(|m| (m.line, m.label)).collect();
         assert_eq!(pairs, vec![(10, 20), (11, 21), (12, 22), (13, 23), (14, 24)]);
-        assert_eq!(a.of_line(13).map(|m| m.force.value), Some(40.0));
-        assert_eq!(a.of_line(13).and_then(|m| m.force.unit), Some(ForceUnit::Kilonewton));
+        let Some(LabelValue::Force(f)) = a.of_line(13).map(|m| m.value) else { panic!("a force") };
+        assert_eq!((f.value, f.unit), (40.0, Some(ForceUnit::Kilonewton)));
         assert!((a.matches[0].distance - 0.3).abs() < 1e-12);
         assert!(a.leftovers.is_empty());
     }
@@ -582,11 +582,11 @@ mod tests {
     #[test]
     fn an_unparsable_nearest_label_is_an_error() {
         let (lines, mut labels) = row();
-        labels[1] = text(21, 2.3, -2.0, "20 kN/m");
+        labels[1] = text(21, 2.3, -2.0, "20 kNm");
         let e = assign(&lines, &labels, tol()).unwrap_err();
         match e {
             AssignError::Unparsable { line: 11, label: 21, error: LabelError::UnknownUnit { unit, .. } } => {
-                assert_eq!(unit, "kN/m");
+                assert_eq!(unit, "kNm");
             }
             other => panic!("{other:?}"),
         }

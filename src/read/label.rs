@@ -66,6 +66,8 @@ pub enum QuantityKind {
     Force,
     /// A length (on the command line).
     Length,
+    /// A force per length (a distributed load's label).
+    Intensity,
 }
 
 impl QuantityKind {
@@ -75,6 +77,7 @@ impl QuantityKind {
         match self {
             QuantityKind::Force => "85 kN",
             QuantityKind::Length => "6 m",
+            QuantityKind::Intensity => "12 kN/m",
         }
     }
 
@@ -90,6 +93,9 @@ impl QuantityKind {
                 let symbols: Vec<&str> = LengthUnit::ALL.iter().map(|u| u.symbol()).collect();
                 symbols.join(", ")
             }
+            QuantityKind::Intensity => {
+                "a force unit per length unit, such as kN/m, N/mm, kip/ft, lbf/in, or plf, klf".into()
+            }
         }
     }
 }
@@ -99,6 +105,7 @@ impl fmt::Display for QuantityKind {
         f.write_str(match self {
             QuantityKind::Force => "force",
             QuantityKind::Length => "length",
+            QuantityKind::Intensity => "force-per-length",
         })
     }
 }
@@ -201,6 +208,127 @@ pub fn parse_force(text: &str) -> Result<LabelForce, LabelError> {
         });
     }
     Ok(LabelForce { value: q.value, unit: q.unit })
+}
+
+/// A distributed load's intensity as its label gives it: per unit of
+/// horizontal length, `w0` at the stretch's left end and `w1` at its right
+/// end (equal for a uniform load).
+#[derive(Clone, Copy, Debug, PartialEq)]
+pub struct LabelIntensity {
+    /// Intensity at the left end, as written (≥ 0).
+    pub w0: f64,
+    /// Intensity at the right end, as written (≥ 0; not both zero).
+    pub w1: f64,
+    /// The force unit written.
+    pub force: ForceUnit,
+    /// The length unit written.
+    pub length: LengthUnit,
+}
+
+impl LabelIntensity {
+    /// The intensities in `force` per `length`.
+    #[must_use]
+    pub fn in_units(&self, force: ForceUnit, length: LengthUnit) -> (f64, f64) {
+        // w [F/L] = w · (F→force) / (L→length)
+        let k = self.force.factor_to(force) / self.length.factor_to(length);
+        (self.w0 * k, self.w1 * k)
+    }
+}
+
+/// The separators of a range of two intensities (`8..12`, `8 - 12`,
+/// `8 to 12`, `8–12`, `8…12`), longest first.
+const RANGE: [&str; 3] = ["to", "-", "~"];
+
+/// Reads a distributed load's label: `12 kN/m`, `w = 12kN/m`,
+/// `0.8 kip/ft`, `8..12 kN/m` or `8 - 12 kN/m` (linearly varying, left end
+/// first), `500 plf`, `1.2 klf`. A unit per length is required.
+pub fn parse_intensity(text: &str) -> Result<LabelIntensity, LabelError> {
+    let t = text.trim();
+    let kind = QuantityKind::Intensity;
+    if t.is_empty() {
+        return Err(LabelError::Empty { kind });
+    }
+    // "8..12" would read as "8." then ".12": make every range separator a word.
+    let spaced = t.replace("..", " to ").replace('\u{2026}', " to ").replace('\u{2013}', " to ");
+    let body = strip_name(&spaced);
+    let not_a_number = || LabelError::NotANumber { text: t.to_string(), kind };
+    let number = |s: &str| -> Result<(f64, String), LabelError> {
+        let (n, rest) = split_number(s).ok_or_else(not_a_number)?;
+        if let Some(instead) = comma_instead(n, rest) {
+            return Err(LabelError::CommaDecimal { text: t.to_string(), instead });
+        }
+        let v: f64 = n.trim_start_matches('+').parse().map_err(|_| not_a_number())?;
+        if !v.is_finite() || v.abs() >= LIMIT {
+            return Err(LabelError::TooLarge { text: t.to_string() });
+        }
+        if v < 0.0 {
+            return Err(LabelError::Negative { text: t.to_string(), magnitude: t.replacen('-', "", 1) });
+        }
+        Ok((v, rest.trim_start().to_string()))
+    };
+    let (w0, rest) = number(body)?;
+    let (w1, rest) = match RANGE.iter().find_map(|sep| rest.strip_prefix(sep)) {
+        Some(after) if split_number(after.trim_start()).is_some() => number(after.trim_start())?,
+        _ => (w0, rest),
+    };
+    if w0 + w1 == 0.0 {
+        return Err(LabelError::Zero { text: t.to_string() });
+    }
+    let rest = rest.trim();
+    let rest = rest.strip_suffix('.').map_or(rest, str::trim_end);
+    if rest.chars().any(|c| c.is_ascii_digit()) {
+        return Err(LabelError::SeveralNumbers { text: t.to_string(), kind });
+    }
+    let (unit_text, after) = rest.split_once(char::is_whitespace).unwrap_or((rest, ""));
+    if !after.trim().is_empty() {
+        return Err(LabelError::TrailingText { text: t.to_string(), rest: after.trim().to_string(), kind });
+    }
+    let unknown = || LabelError::UnknownUnit { text: t.to_string(), unit: unit_text.to_string(), kind };
+    if unit_text.is_empty() {
+        return Err(unknown());
+    }
+    let (force, length) = match unit_text.to_ascii_lowercase().as_str() {
+        "plf" => (ForceUnit::PoundForce, LengthUnit::Foot),
+        "klf" => (ForceUnit::Kip, LengthUnit::Foot),
+        _ => {
+            let (f, l) = unit_text.split_once('/').ok_or_else(unknown)?;
+            (
+                f.trim().parse::<ForceUnit>().map_err(|_| unknown())?,
+                l.trim().parse::<LengthUnit>().map_err(|_| unknown())?,
+            )
+        }
+    };
+    Ok(LabelIntensity { w0, w1, force, length })
+}
+
+/// What a label says: a force (a point load's) or a force per length (a
+/// distributed load's).
+#[derive(Clone, Copy, Debug, PartialEq)]
+pub enum LabelValue {
+    /// A force, such as `85 kN`.
+    Force(LabelForce),
+    /// A force per length, such as `12 kN/m`.
+    Intensity(LabelIntensity),
+}
+
+/// Reads a label as a force or, failing that, as a force per length; the
+/// error is the one of the kind the text looks like (a `/` or `plf`/`klf`:
+/// per length).
+pub fn parse_label(text: &str) -> Result<LabelValue, LabelError> {
+    match parse_force(text) {
+        Ok(f) => Ok(LabelValue::Force(f)),
+        Err(force_error) => match parse_intensity(text) {
+            Ok(w) => Ok(LabelValue::Intensity(w)),
+            Err(intensity_error) => {
+                let lower = text.to_ascii_lowercase();
+                if text.contains('/') || lower.contains("plf") || lower.contains("klf") || text.contains("..") {
+                    Err(intensity_error)
+                } else {
+                    Err(force_error)
+                }
+            }
+        },
+    }
 }
 
 /// Reads a force given on the command line: `450 kN`, `450kN`, `450`.
@@ -341,6 +469,58 @@ fn comma_instead(number: &str, rest: &str) -> Option<String> {
         options.push("the number with a decimal point and no commas".to_string());
     }
     Some(options.join(" or "))
+}
+
+#[cfg(test)]
+mod intensity_tests {
+    use super::*;
+
+    #[test]
+    fn intensities_read_in_their_usual_forms() {
+        let w = parse_intensity("w = 12 kN/m").unwrap();
+        assert_eq!((w.w0, w.w1, w.force, w.length), (12.0, 12.0, ForceUnit::Kilonewton, LengthUnit::Metre));
+        let w = parse_intensity("12kN/m").unwrap();
+        assert_eq!((w.w0, w.w1), (12.0, 12.0));
+        let w = parse_intensity("0.8 kip/ft").unwrap();
+        assert_eq!((w.force, w.length), (ForceUnit::Kip, LengthUnit::Foot));
+        let w = parse_intensity("8..12 kN/m").unwrap();
+        assert_eq!((w.w0, w.w1), (8.0, 12.0));
+        let w = parse_intensity("q: 0 - 4.5 kN/m").unwrap();
+        assert_eq!((w.w0, w.w1), (0.0, 4.5));
+        let w = parse_intensity("8 to 12 kN/m").unwrap();
+        assert_eq!((w.w0, w.w1), (8.0, 12.0));
+        let w = parse_intensity("500 plf").unwrap();
+        assert_eq!((w.force, w.length), (ForceUnit::PoundForce, LengthUnit::Foot));
+    }
+
+    #[test]
+    fn intensities_convert_to_the_drawing_units() {
+        // 12 kN/m on a drawing in millimetres: 0.012 kN per mm.
+        let w = parse_intensity("12 kN/m").unwrap();
+        let (a, b) = w.in_units(ForceUnit::Kilonewton, LengthUnit::Millimetre);
+        assert!((a - 0.012).abs() < 1e-15 && (b - 0.012).abs() < 1e-15);
+        // 1 kip/ft = 4448.2216152605 N / 0.3048 m = 14593.9029... N/m (NIST SP 811, 2008, exact factors).
+        let w = parse_intensity("1 kip/ft").unwrap();
+        let (a, _) = w.in_units(ForceUnit::Newton, LengthUnit::Metre);
+        assert!((a - 4448.2216152605 / 0.3048).abs() < 1e-9);
+    }
+
+    #[test]
+    fn bad_intensities_say_what_to_write() {
+        for (text, want) in [
+            ("12", "not a force-per-length unit"),
+            ("12 kN", "not a force-per-length unit"),
+            ("12 kN/s", "not a force-per-length unit"),
+            ("-3 kN/m", "negative"),
+            ("0 kN/m", "zero"),
+            ("12,5 kN/m", "12.5"),
+            ("abc kN/m", "not a number"),
+            ("12 kN/m uniform", "after its number and unit"),
+        ] {
+            let e = parse_intensity(text).unwrap_err().to_string();
+            assert!(e.contains(want), "{text}: {e}");
+        }
+    }
 }
 
 #[cfg(test)]

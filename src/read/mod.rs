@@ -24,11 +24,11 @@ use kurbo::{Line, Point, Rect, Vec2};
 use thiserror::Error;
 
 use crate::dxf::{File, Format, Release, ScanOptions, names_match};
-use crate::model::{Deck, LIMIT, Load, ModelError, Origin, Structure, Support, fmt_num, fmt_xy};
+use crate::model::{Deck, DistributedLoad, LIMIT, Load, ModelError, Origin, Structure, Support, fmt_num, fmt_xy};
 use crate::units::{ForceUnit, LengthUnit, Units};
 use assign::{AssignError, AssignTolerances, LabelText, LoadGeom, LoadShape};
 use drawn::{Drawn, drawn};
-use label::{LabelForce, parse_force};
+use label::{LabelForce, LabelValue, parse_force};
 
 /// The layers the reader takes its input from.
 #[derive(Clone, Debug, PartialEq)]
@@ -41,11 +41,23 @@ pub struct InputLayers {
     pub deck: String,
     /// True when the deck layer was named by the user (then it must exist).
     pub deck_required: bool,
+    /// Hanger or post positions (vertical lines), where distributed loads
+    /// are carried to the cable or arch.
+    pub hangers: String,
+    /// True when the hangers layer was named by the user.
+    pub hangers_required: bool,
 }
 
 impl Default for InputLayers {
     fn default() -> Self {
-        InputLayers { supports: "SUPPORTS".into(), loads: "LOADS".into(), deck: "DECK".into(), deck_required: false }
+        InputLayers {
+            supports: "SUPPORTS".into(),
+            loads: "LOADS".into(),
+            deck: "DECK".into(),
+            deck_required: false,
+            hangers: "HANGERS".into(),
+            hangers_required: false,
+        }
     }
 }
 
@@ -96,6 +108,29 @@ pub struct LoadRead {
     pub anchor: Point,
 }
 
+/// A distributed load as read, for `inspect` and the report.
+#[derive(Clone, Debug, PartialEq)]
+pub struct StretchRead {
+    /// The load line.
+    pub origin: Origin,
+    /// The label's text as shown (plain).
+    pub label: Option<String>,
+    /// The intensities as written, left and right.
+    pub written: (f64, f64),
+    /// The force unit written.
+    pub force_unit: ForceUnit,
+    /// The length unit written.
+    pub length_unit: LengthUnit,
+    /// Left end of the stretch.
+    pub x0: f64,
+    /// Right end.
+    pub x1: f64,
+    /// Intensity at x0 in model units (force unit per drawing length unit).
+    pub w0: f64,
+    /// Intensity at x1 in model units.
+    pub w1: f64,
+}
+
 /// Everything read from a drawing.
 #[derive(Clone, Debug)]
 pub struct Reading {
@@ -103,6 +138,10 @@ pub struct Reading {
     pub structure: Structure,
     /// The loads as read, left to right (same order as the structure's).
     pub loads: Vec<LoadRead>,
+    /// The distributed loads as read, left to right.
+    pub distributed: Vec<StretchRead>,
+    /// Hanger or post positions from the hangers layer: x and where drawn, sorted.
+    pub hangers: Vec<(f64, Origin)>,
     /// The drawing's model-space extents (without the tool's own layers).
     pub extents: Option<Rect>,
     /// The drawing's release.
@@ -165,7 +204,7 @@ pub enum ReadError {
 #[must_use]
 pub fn scan_options<'a>(layers: &InputLayers, extra: impl Iterator<Item = &'a str>) -> ScanOptions {
     let extra: Vec<String> = extra.map(String::from).collect();
-    let mut keep = vec![layers.supports.clone(), layers.loads.clone(), layers.deck.clone()];
+    let mut keep = vec![layers.supports.clone(), layers.loads.clone(), layers.deck.clone(), layers.hangers.clone()];
     keep.extend(extra.iter().cloned());
     ScanOptions { keep_layers: keep, skip_extents_layers: extra, ..ScanOptions::default() }
 }
@@ -270,19 +309,40 @@ pub fn read(file: &File<'_>, options: &ReadOptions) -> Result<Reading, ReadError
                         problem: "this load line has no length; draw it along the load's line of action".into(),
                     });
                 }
-                items.push(LoadItem {
-                    shape: LoadShape::Segment(l),
-                    direction: line_direction(l),
-                    origin: o,
-                    given: None,
-                });
+                let kind = if is_horizontal(l) {
+                    ItemKind::Stretch { x0: l.p0.x.min(l.p1.x), x1: l.p0.x.max(l.p1.x) }
+                } else {
+                    ItemKind::Point { direction: line_direction(l) }
+                };
+                items.push(LoadItem { shape: LoadShape::Segment(l), kind, origin: o, given: None });
+            }
+            Drawn::Path(points) => {
+                // A polyline on the loads layer is a distributed load when
+                // it runs horizontally.
+                match horizontal_extent(&points) {
+                    Some(l) => items.push(LoadItem {
+                        shape: LoadShape::Segment(l),
+                        kind: ItemKind::Stretch { x0: l.p0.x, x1: l.p1.x },
+                        origin: o,
+                        given: None,
+                    }),
+                    None => warnings.push(format!(
+                        "{o}: a polyline on {} that is not horizontal was ignored (a distributed load is drawn as a horizontal line)",
+                        layers.loads
+                    )),
+                }
             }
             Drawn::Insert { at, rotation, attributes } => {
                 let given = attribute_force(&attributes, &o)?;
                 let (sin, cos) = rotation.to_radians().sin_cos();
                 let dir = Vec2::new(sin, -cos);
                 let dir = if dir.x.abs() <= VERTICAL { Vec2::new(0.0, -1.0) } else { dir };
-                items.push(LoadItem { shape: LoadShape::Point(at), direction: dir, origin: o, given });
+                items.push(LoadItem {
+                    shape: LoadShape::Point(at),
+                    kind: ItemKind::Point { direction: dir },
+                    origin: o,
+                    given,
+                });
             }
             Drawn::Text(t) => {
                 let plain = if t.mtext { mtext::plain_mtext(&t.raw) } else { mtext::plain_text(&t.raw) };
@@ -296,43 +356,76 @@ pub fn read(file: &File<'_>, options: &ReadOptions) -> Result<Reading, ReadError
     }
     ignored.warn(&layers.loads, &mut warnings);
 
-    // Magnitudes: attributes first, then --load-scale or the labels.
-    let mut magnitudes: Vec<Option<(LabelForce, Option<usize>)>> =
-        items.iter().map(|i| i.given.map(|g| (g, None))).collect();
+    // Magnitudes: attributes first, then --load-scale (point loads) or the labels.
+    let mut values: Vec<Option<(LabelValue, Option<usize>)>> =
+        items.iter().map(|i| i.given.map(|g| (LabelValue::Force(g), None))).collect();
     let mut leftover_texts: Vec<usize> = Vec::new();
     if let Some((scale, unit)) = options.load_scale {
-        for (m, item) in magnitudes.iter_mut().zip(&items) {
+        for (m, item) in values.iter_mut().zip(&items) {
             if m.is_none()
-                && let LoadShape::Segment(l) = item.shape
+                && let (LoadShape::Segment(l), ItemKind::Point { .. }) = (item.shape, item.kind)
             {
-                *m = Some((LabelForce { value: l.length() * scale, unit: Some(unit) }, None));
+                *m = Some((LabelValue::Force(LabelForce { value: l.length() * scale, unit: Some(unit) }), None));
             }
         }
-        leftover_texts.extend(0..texts.len());
     }
-    let need: Vec<usize> = (0..items.len()).filter(|&i| magnitudes[i].is_none()).collect();
+    let need: Vec<usize> = (0..items.len()).filter(|&i| values[i].is_none()).collect();
     if need.is_empty() {
-        if options.load_scale.is_none() {
-            leftover_texts.extend(0..texts.len());
-        }
+        leftover_texts.extend(0..texts.len());
     } else {
         let geoms: Vec<LoadGeom> = need.iter().map(|&i| LoadGeom { id: i, shape: items[i].shape }).collect();
         let labels: Vec<LabelText> = texts.iter().map(|(t, _)| t.clone()).collect();
         let assignment = assign::assign(&geoms, &labels, AssignTolerances::default())
             .map_err(|e| ReadError::Label(label_message(&e, &items, &texts, &layers.loads)))?;
         for m in &assignment.matches {
-            magnitudes[m.line] = Some((m.force, Some(m.label)));
+            values[m.line] = Some((m.value, Some(m.label)));
         }
         leftover_texts.extend(assignment.leftovers.iter().map(|l| l.label));
     }
-    for &t in &leftover_texts {
-        let (text, o) = &texts[t];
-        warnings.push(format!("text '{}' ({o}) is not the label of any load and was ignored", text.text));
+    if options.load_scale.is_some() && !leftover_texts.is_empty() {
+        warnings.push(format!(
+            "{} text(s) on {} not used: --load-scale reads point loads from their lines' lengths",
+            leftover_texts.len(),
+            layers.loads
+        ));
+    } else {
+        for &t in &leftover_texts {
+            let (text, o) = &texts[t];
+            warnings.push(format!("text '{}' ({o}) is not the label of any load and was ignored", text.text));
+        }
+    }
+    // A point load needs a force, a distributed load a force per length.
+    for (item, v) in items.iter().zip(&values) {
+        let Some((value, label)) = v else { continue };
+        let text = || label.map(|l| format!("'{}'", texts[l].0.text)).unwrap_or_default();
+        match (item.kind, value) {
+            (ItemKind::Point { .. }, LabelValue::Intensity(_)) => {
+                return Err(ReadError::Label(format!(
+                    "the label {} of the load line {} is a load per length, but the line is not horizontal: a point load's label is a force such as '85 kN'; draw a distributed load as a horizontal line",
+                    text(),
+                    item.origin
+                )));
+            }
+            (ItemKind::Stretch { .. }, LabelValue::Force(_)) => {
+                return Err(ReadError::Label(format!(
+                    "the horizontal load line {} is a distributed load, but its label {} is a force: write a load per length such as '12 kN/m' (or '8..12 kN/m' from left to right)",
+                    item.origin,
+                    text()
+                )));
+            }
+            _ => {}
+        }
     }
 
     // The force unit: what the labels agree on, else kN.
-    let written: Vec<ForceUnit> =
-        magnitudes.iter().flatten().map(|(f, _)| f.unit.unwrap_or(options.label_unit)).collect();
+    let written: Vec<ForceUnit> = values
+        .iter()
+        .flatten()
+        .map(|(v, _)| match v {
+            LabelValue::Force(f) => f.unit.unwrap_or(options.label_unit),
+            LabelValue::Intensity(w) => w.force,
+        })
+        .collect();
     let (force_unit, force_source) = match options.force_unit {
         Some(u) => (u, "given with --force-unit".to_string()),
         None => match written.first() {
@@ -341,7 +434,7 @@ pub fn read(file: &File<'_>, options: &ReadOptions) -> Result<Reading, ReadError
             None => (ForceUnit::Kilonewton, "kN (default)".to_string()),
         },
     };
-    if magnitudes.iter().flatten().any(|(f, _)| f.unit.is_none()) {
+    if values.iter().flatten().any(|(v, _)| matches!(v, LabelValue::Force(f) if f.unit.is_none())) {
         warnings.push(format!(
             "some labels have no unit; they were read as {}: give --label-unit if not",
             options.label_unit
@@ -350,32 +443,74 @@ pub fn read(file: &File<'_>, options: &ReadOptions) -> Result<Reading, ReadError
 
     let mut loads = Vec::new();
     let mut reads = Vec::new();
-    for (item, m) in items.iter().zip(&magnitudes) {
-        // Every item got a magnitude or the assignment returned an error.
-        let Some((f, label)) = m else { continue };
-        let value = f.value_in(force_unit, options.label_unit);
-        let force = item.direction * value;
-        let anchor = match item.shape {
-            LoadShape::Segment(l) => l.p0.midpoint(l.p1),
-            LoadShape::Point(p) => p,
-        };
-        let anchor = if force.x == 0.0 {
-            // An exactly vertical load: one x for the whole line.
-            if let LoadShape::Segment(l) = item.shape { Point::new((l.p0.x + l.p1.x) / 2.0, anchor.y) } else { anchor }
-        } else {
-            anchor
-        };
-        loads.push(Load { anchor, force, origin: item.origin.clone() });
-        reads.push(LoadRead {
-            origin: item.origin.clone(),
-            label: label.map(|l| texts[l].0.text.clone()),
-            label_origin: label.map(|l| texts[l].1.clone()),
-            value: f.value,
-            unit: f.unit.unwrap_or(options.label_unit),
-            force,
-            anchor,
-        });
+    let mut distributed = Vec::new();
+    let mut stretches = Vec::new();
+    for (item, v) in items.iter().zip(&values) {
+        // Every item got a value or the assignment returned an error.
+        let Some((value, label)) = v else { continue };
+        match (item.kind, value) {
+            (ItemKind::Point { direction }, LabelValue::Force(f)) => {
+                let value = f.value_in(force_unit, options.label_unit);
+                let force = direction * value;
+                let anchor = match item.shape {
+                    LoadShape::Segment(l) => l.p0.midpoint(l.p1),
+                    LoadShape::Point(p) => p,
+                };
+                let anchor = if force.x == 0.0 {
+                    // An exactly vertical load: one x for the whole line.
+                    if let LoadShape::Segment(l) = item.shape {
+                        Point::new((l.p0.x + l.p1.x) / 2.0, anchor.y)
+                    } else {
+                        anchor
+                    }
+                } else {
+                    anchor
+                };
+                loads.push(Load { anchor, force, origin: item.origin.clone() });
+                reads.push(LoadRead {
+                    origin: item.origin.clone(),
+                    label: label.map(|l| texts[l].0.text.clone()),
+                    label_origin: label.map(|l| texts[l].1.clone()),
+                    value: f.value,
+                    unit: f.unit.unwrap_or(options.label_unit),
+                    force,
+                    anchor,
+                });
+            }
+            (ItemKind::Stretch { x0, x1 }, LabelValue::Intensity(w)) => {
+                let (w0, w1) = w.in_units(force_unit, length);
+                distributed.push(DistributedLoad { x0, x1, w0, w1, origin: item.origin.clone() });
+                stretches.push(StretchRead {
+                    origin: item.origin.clone(),
+                    label: label.map(|l| texts[l].0.text.clone()),
+                    written: (w.w0, w.w1),
+                    force_unit: w.force,
+                    length_unit: w.length,
+                    x0,
+                    x1,
+                    w0,
+                    w1,
+                });
+            }
+            _ => {}
+        }
     }
+
+    // Hanger or post positions: vertical lines on the hangers layer.
+    let mut hangers = Vec::new();
+    let mut ignored = Ignored::default();
+    for e in on(&layers.hangers) {
+        let d = drawn(file, e, tolerance);
+        let o = drawn::origin(e, drawn::position(&d));
+        check_finite(&d, &o)?;
+        match d {
+            Drawn::Line(l) if is_vertical(l) => hangers.push(((l.p0.x + l.p1.x) / 2.0, o)),
+            other => ignored.add(&other),
+        }
+    }
+    ignored.warn(&layers.hangers, &mut warnings);
+    hangers.sort_by(|a, b| a.0.total_cmp(&b.0));
+    hangers.dedup_by(|a, b| a.0 == b.0);
 
     // Deck.
     let mut deck = Deck::default();
@@ -394,11 +529,14 @@ pub fn read(file: &File<'_>, options: &ReadOptions) -> Result<Reading, ReadError
     let deck = (!deck.segments.is_empty()).then_some(deck);
 
     let units = Units { length, force: force_unit };
-    let structure = Structure::new(units, supports, loads, Vec::new(), deck, &layers.supports)?;
+    let structure = Structure::new(units, supports, loads, distributed, deck, &layers.supports)?;
     reads.sort_by(|a, b| a.anchor.x.total_cmp(&b.anchor.x));
+    stretches.sort_by(|a, b| a.x0.total_cmp(&b.x0));
     Ok(Reading {
         structure,
         loads: reads,
+        distributed: stretches,
+        hangers,
         extents,
         release: file.release,
         binary: file.format != Format::Ascii,
@@ -415,7 +553,7 @@ pub fn read(file: &File<'_>, options: &ReadOptions) -> Result<Reading, ReadError
 fn label_line(plain: &str) -> String {
     let lines: Vec<String> =
         plain.lines().map(|l| l.split_whitespace().collect::<Vec<_>>().join(" ")).filter(|l| !l.is_empty()).collect();
-    let forces: Vec<&String> = lines.iter().filter(|l| parse_force(l).is_ok()).collect();
+    let forces: Vec<&String> = lines.iter().filter(|l| label::parse_label(l).is_ok()).collect();
     match forces.as_slice() {
         [one] if lines.len() > 1 => (*one).clone(),
         _ => lines.join(" "),
@@ -425,11 +563,32 @@ fn label_line(plain: &str) -> String {
 /// A load line or block before its magnitude is known.
 struct LoadItem {
     shape: LoadShape,
-    /// Unit vector the load acts along.
-    direction: Vec2,
+    kind: ItemKind,
     origin: Origin,
     /// A magnitude given by a block attribute.
     given: Option<LabelForce>,
+}
+
+/// A point load along a direction, or a distributed load over a stretch.
+#[derive(Clone, Copy, Debug)]
+enum ItemKind {
+    /// Acting along this unit vector.
+    Point { direction: Vec2 },
+    /// Spread from x0 to x1.
+    Stretch { x0: f64, x1: f64 },
+}
+
+fn is_horizontal(l: Line) -> bool {
+    let d = l.p1 - l.p0;
+    d.x != 0.0 && d.y.abs() <= VERTICAL * d.hypot()
+}
+
+/// A polyline's span as a horizontal line, when every piece is horizontal.
+fn horizontal_extent(points: &[Point]) -> Option<Line> {
+    let first = *points.first()?;
+    let flat = points.windows(2).all(|w| is_horizontal(Line::new(w[0], w[1])) || w[0] == w[1]);
+    let (lo, hi) = points.iter().fold((first.x, first.x), |(a, b), p| (a.min(p.x), b.max(p.x)));
+    (flat && hi > lo).then(|| Line::new(Point::new(lo, first.y), Point::new(hi, first.y)))
 }
 
 fn is_vertical(l: Line) -> bool {
@@ -624,7 +783,11 @@ mod tests {
         let r = read_str(&two_loads(["not a load", "neither"]), &options).unwrap();
         let w: Vec<f64> = r.structure.loads().iter().map(|l| -l.force.y).collect();
         assert_eq!(w, [20.0, 10.0]);
-        assert!(r.warnings.iter().any(|w| w.contains("not a load")), "labels are ignored, and said so");
+        assert!(
+            r.warnings.iter().any(|w| w.contains("2 text(s) on LOADS not used")),
+            "labels are ignored, and said so: {:?}",
+            r.warnings
+        );
     }
 
     #[test]

@@ -92,7 +92,7 @@ fn inspect_shows_what_was_read() {
     let f = fixture("footbridge-m-r2018.dxf").display().to_string();
     let run = hangline(&["inspect", &f]).ok();
     assert!(run.stdout.contains("lengths in m (from $INSUNITS = 6)"), "{}", run.stdout);
-    assert!(run.stdout.contains("loads (layer LOADS): 7, 222.5 kN in all"), "{}", run.stdout);
+    assert!(run.stdout.contains("loads (layer LOADS): 7 point loads; 222.5 kN in all"), "{}", run.stdout);
     assert!(run.stdout.contains("label 'P = 40 kN' (entity 46)"), "{}", run.stdout);
     assert!(run.stdout.contains("LOADS (service)"), "the stray title is reported: {}", run.stdout);
     let run = hangline(&["inspect", &f, "--json"]).ok();

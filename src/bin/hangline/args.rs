@@ -67,8 +67,11 @@ pub enum Command {
 #[derive(Debug, Args)]
 pub struct ReadArgs {
     /// Rename a layer: ROLE=NAME, repeatable. Input roles: supports, loads,
-    /// deck; output roles: profile, hangers, diagram, forces, dimensions,
-    /// bow, notes.
+    /// deck, hangers (hanger or post positions for distributed loads);
+    /// output roles: profile, hangers, diagram, forces, dimensions, bow,
+    /// notes. (The input role `hangers` is renamed with `--layer
+    /// hangers=NAME`; the output layer of the drawn hangers with `--layer
+    /// hanger-lines=NAME`.)
     #[arg(long = "layer", value_name = "ROLE=NAME")]
     pub layers: Vec<String>,
     /// The drawing's length unit (mm, cm, dm, m, km, in, ft, yd), when
@@ -251,10 +254,14 @@ impl ReadArgs {
                     input.deck = name.into();
                     input.deck_required = true;
                 }
+                "hangers" => {
+                    input.hangers = name.into();
+                    input.hangers_required = true;
+                }
                 other => {
                     let role = Role::ALL.iter().find(|r| r.key() == other).ok_or_else(|| {
                         anyhow!(
-                            "--layer '{spec}': unknown role '{other}'; roles are supports, loads, deck, {}",
+                            "--layer '{spec}': unknown role '{other}'; roles are supports, loads, deck, hangers, {}",
                             Role::ALL.iter().map(|r| r.key()).collect::<Vec<_>>().join(", ")
                         )
                     })?;
@@ -262,7 +269,7 @@ impl ReadArgs {
                 }
             }
         }
-        let inputs = [&input.supports, &input.loads, &input.deck];
+        let inputs = [&input.supports, &input.loads, &input.deck, &input.hangers];
         for out in output.all() {
             if inputs.iter().any(|i| hangline::dxf::names_match(i, out)) {
                 bail!(

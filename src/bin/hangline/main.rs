@@ -158,7 +158,8 @@ pub fn solve_one(input: &Path, output: &Path, report_to: Option<&Path>, job: &Jo
     let report_temp = match report_to {
         Some(path) => {
             let mut t = temp_beside(path)?;
-            let r = report(&input_name, &outcome.reading, &outcome.solution, Some(&outcome.placement));
+            let r =
+                report(&input_name, &outcome.reading, &outcome.carried, &outcome.solution, Some(&outcome.placement));
             serde_json::to_writer_pretty(t.as_file_mut(), &r).context("cannot write the report")?;
             t.as_file_mut().write_all(b"\n").context("cannot write the report")?;
             Some((t, path))
@@ -192,11 +193,14 @@ fn solve(a: &SolveArgs) -> Result<bool> {
         warn(w);
     }
     let q = a.quiet;
-    let total: f64 = st.loads().iter().map(|l| l.magnitude()).sum();
+    let total: f64 = st.loads().iter().map(|l| l.magnitude()).sum::<f64>()
+        + st.distributed().iter().map(hangline::model::DistributedLoad::total).sum::<f64>();
+    let spread =
+        if st.distributed().is_empty() { String::new() } else { format!(", {} distributed", st.distributed().len()) };
     say(
         q,
         &format!(
-            "read    {input_name} ({}, {}; lengths in {}, forces in {}): 2 supports, {} loads ({} in all){}",
+            "read    {input_name} ({}, {}; lengths in {}, forces in {}): 2 supports, {} point loads{spread} ({} in all){}",
             r.release.name(),
             if r.binary { "binary" } else { "ASCII" },
             u.length,
@@ -206,6 +210,20 @@ fn solve(a: &SolveArgs) -> Result<bool> {
             if st.deck().is_some() { ", deck" } else { "" }
         ),
     );
+    let carried = &outcome.carried;
+    if !carried.shares.is_empty() {
+        let to_hangers: f64 = carried.shares.iter().map(|s| s.load).sum();
+        say(
+            q,
+            &format!(
+                "carried the distributed loads to {} hangers ({}), {} and {} straight into the supports",
+                carried.shares.len(),
+                fmt_force(to_hangers, u.force),
+                fmt_force(carried.to_supports[0], u.force),
+                fmt_force(carried.to_supports[1], u.force)
+            ),
+        );
+    }
     let conds: Vec<String> = s
         .conditions
         .iter()
@@ -216,7 +234,7 @@ fn solve(a: &SolveArgs) -> Result<bool> {
         })
         .collect();
     say(q, &format!("solved  {} with {}", s.form, conds.join(", ")));
-    say(q, &format!("        {}", result_line(st, s)));
+    say(q, &format!("        {}", result_line(&carried.structure, s)));
     for t in &s.towers {
         say(
             q,
@@ -303,6 +321,37 @@ fn inspect(a: &InspectArgs) -> Result<()> {
             dir,
             l.handle.as_deref().unwrap_or("-")
         );
+    }
+    if !ins.distributed.is_empty() {
+        println!("distributed loads (layer {}): {}", options.layers.loads, ins.distributed.len());
+        for d in &ins.distributed {
+            println!(
+                "       from x = {} to {}: {} ({} in all){}  entity {}",
+                fmt_length(d.x0, u.length),
+                fmt_length(d.x1, u.length),
+                d.written,
+                fmt_force(d.total, u.force),
+                d.label.as_ref().map(|l| format!("  label '{l}'")).unwrap_or_default(),
+                d.handle.as_deref().unwrap_or("-")
+            );
+        }
+        if ins.shares.is_empty() {
+            println!("       no hanger positions: carried by the cable or arch directly (continuous funicular)");
+        } else {
+            println!(
+                "       carried to {} hanger positions (simple spans between them; layer {} and the point loads):",
+                ins.shares.len(),
+                options.layers.hangers
+            );
+            for sh in &ins.shares {
+                println!("         x = {}: {}", fmt_length(sh.x, u.length), fmt_force(sh.load, u.force));
+            }
+            println!(
+                "         into the supports: {} left, {} right",
+                fmt_force(ins.to_supports[0], u.force),
+                fmt_force(ins.to_supports[1], u.force)
+            );
+        }
     }
     if ins.deck_segments > 0 {
         println!("deck (layer {}): {} segments", options.layers.deck, ins.deck_segments);
