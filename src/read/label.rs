@@ -249,7 +249,7 @@ pub fn parse_intensity(text: &str) -> Result<LabelIntensity, LabelError> {
         return Err(LabelError::Empty { kind });
     }
     // "8..12" would read as "8." then ".12": make every range separator a word.
-    let spaced = t.replace("..", " to ").replace('\u{2026}', " to ").replace('\u{2013}', " to ");
+    let spaced = t.replace("..", " to ").replace(['\u{2026}', '\u{2013}'], " to ");
     let body = strip_name(&spaced);
     let not_a_number = || LabelError::NotANumber { text: t.to_string(), kind };
     let number = |s: &str| -> Result<(f64, String), LabelError> {

@@ -295,7 +295,7 @@ fn inspect(a: &InspectArgs) -> Result<()> {
         println!("  {side}  {what}   entity {}", s.handle.as_deref().unwrap_or("-"));
     }
     println!(
-        "loads (layer {}): {}, {} in all",
+        "loads (layer {}): {} point loads; {} in all, distributed loads included",
         options.layers.loads,
         ins.loads.len(),
         fmt_force(ins.total_load, u.force)
