@@ -7,11 +7,16 @@
 
 use kurbo::{Line, Point, Rect, Vec2};
 
-use super::nice::{fmt_force, round_down, round_up, space_letter};
+use super::nice::{fmt_force, fmt_length, round_down, round_up, space_letter};
 use super::shapes::{HAlign, Item, Role, Shape, Text, VAlign};
 use super::{LayoutOptions, Placement};
 use crate::model::Structure;
 use crate::solve::{Form, Solution};
+
+/// Most rays drawn in the force diagram.
+const MAX_RAYS: usize = 40;
+/// Most load-line points lettered one by one.
+const MAX_LETTERED: usize = 28;
 
 /// The caution every output carries.
 pub const CAUTION: &str =
@@ -23,6 +28,24 @@ fn item(role: Role, shape: Shape) -> Item {
 
 fn text(at: Point, height: f64, content: String, h: HAlign, v: VAlign) -> Shape {
     Shape::Text(Text { at, height, rotation: 0.0, content, h, v })
+}
+
+/// Length, sag-to-span ratio, unstressed length and iterations.
+fn extra_line(structure: &Structure, s: &Solution) -> String {
+    let u = structure.units();
+    let ratio = if s.sag.value > 0.0 { format!("1/{:.1}", structure.span() / s.sag.value) } else { "0".into() };
+    let word = match s.form {
+        Form::Cable => "sag",
+        Form::Arch => "rise",
+    };
+    let mut line = format!("{word}/span {ratio}   profile length {} {}", fmt_length(s.length(), u.length), u.length);
+    if let Some(s0) = s.unstressed_length {
+        line.push_str(&format!("   unstressed length {} {}", fmt_length(s0, u.length), u.length));
+    }
+    if s.iterations > 0 {
+        line.push_str(&format!("   self-weight found in {} iterations", s.iterations));
+    }
+    line
 }
 
 /// The scale in words, with a round drawing length that stands for at
@@ -76,14 +99,24 @@ pub(super) fn diagram_items(
     }
     let pole = map(s.pole);
     let lh = 1.0 * th;
+    // With many loads (a continuous load in panels) every ray would blacken
+    // the fan: draw at most about forty, always the first and the last, and
+    // letter only the ends.
+    let count = s.load_line.len();
+    let step = count.div_ceil(MAX_RAYS).max(1);
+    let lettered = count <= MAX_LETTERED;
     for (k, f) in s.load_line.iter().enumerate() {
         let p = map(*f);
-        items.push(item(Role::Diagram, Shape::Line(Line::new(p, pole))));
-        // Letters outward along the ray, away from the pole.
-        let away = p - pole;
-        let away = if away.hypot() > 0.0 { away / away.hypot() } else { Vec2::new(-1.0, 0.0) };
-        let letter = space_letter(k).to_lowercase();
-        items.push(item(Role::Bow, text(p + away * (1.2 * th), lh, letter, HAlign::Center, VAlign::Middle)));
+        if k % step == 0 || k + 1 == count {
+            items.push(item(Role::Diagram, Shape::Line(Line::new(p, pole))));
+        }
+        if lettered || k == 0 || k + 1 == count {
+            // Letters outward along the ray, away from the pole.
+            let away = p - pole;
+            let away = if away.hypot() > 0.0 { away / away.hypot() } else { Vec2::new(-1.0, 0.0) };
+            let letter = space_letter(k).to_lowercase();
+            items.push(item(Role::Bow, text(p + away * (1.2 * th), lh, letter, HAlign::Center, VAlign::Middle)));
+        }
     }
     items.push(item(Role::Diagram, Shape::Circle { center: pole, radius: 0.25 * th }));
     let out = pole - map(a0.midpoint(*s.load_line.last().unwrap_or(&a0)));
@@ -122,8 +155,12 @@ pub(super) fn diagram_items(
         Form::Cable => "CABLE (pure tension)",
         Form::Arch => "ARCH (pure compression)",
     };
-    let notes =
-        [format!("hangline: funicular {form}, {} loads", n), super::result_line(structure, s), CAUTION.to_string()];
+    let notes = [
+        format!("hangline: funicular {form}, {} loads", n),
+        super::result_line(structure, s),
+        extra_line(structure, s),
+        CAUTION.to_string(),
+    ];
     for (i, line) in notes.into_iter().enumerate() {
         let y = yb - 3.5 * th - i as f64 * 1.6 * th;
         items.push(item(Role::Notes, text(Point::new(x0, y), 0.8 * th, line, HAlign::Left, VAlign::Top)));

@@ -14,7 +14,7 @@ use super::dimension::linear;
 use super::nice::{fmt_force, member_name, space_letter};
 use super::shapes::{DimStyle, HAlign, Item, Role, Shape, Text, VAlign};
 use crate::model::{Structure, Support};
-use crate::solve::{Form, Solution};
+use crate::solve::{Form, NodeKind, Solution};
 
 fn item(role: Role, shape: Shape) -> Item {
     Item { role, shape, colour: None }
@@ -53,7 +53,13 @@ fn deck_hit(segments: &[Line], p: Point, dir: Vec2) -> Option<Point> {
     best.map(|(_, q)| q)
 }
 
-pub(super) fn form_items(structure: &Structure, s: &Solution, th: f64, dim: &DimStyle) -> Vec<Item> {
+pub(super) fn form_items(
+    structure: &Structure,
+    s: &Solution,
+    th: f64,
+    dim: &DimStyle,
+    self_weight: Option<f64>,
+) -> Vec<Item> {
     let units = structure.units();
     let nodes = &s.nodes;
     let n = structure.loads().len();
@@ -64,11 +70,15 @@ pub(super) fn form_items(structure: &Structure, s: &Solution, th: f64, dim: &Dim
         Form::Arch => 1.0,
     };
     let mut items = vec![item(Role::Profile, Shape::Polyline { points: nodes.clone(), closed: false })];
+    // Continuous loads (distributed, self-weight) put panel points between
+    // the loads: no Bow letters or per-segment forces there.
+    let continuous = s.node_kinds.iter().any(|k| matches!(k, NodeKind::Panel));
+    let node_of = |k: usize| s.node_kinds.iter().position(|kind| *kind == NodeKind::Load(k)).map(|i| nodes[i]);
 
     // Hangers (cable) or posts (arch), along each load's line of action.
     if let Some(deck) = structure.deck() {
         for (k, load) in structure.loads().iter().enumerate() {
-            let node = nodes[k + 1];
+            let Some(node) = node_of(k) else { continue };
             let dir = load.force / load.force.hypot();
             if let Some(q) = deck_hit(&deck.segments, node, dir) {
                 items.push(item(Role::Hangers, Shape::Line(Line::new(q, node))));
@@ -76,9 +86,18 @@ pub(super) fn form_items(structure: &Structure, s: &Solution, th: f64, dim: &Dim
         }
     }
 
-    // Segment forces, on the pole side of each segment, along it.
+    // Segment forces, on the pole side of each segment, along it; for
+    // continuous loads the largest force, where it acts.
     let fh = 0.8 * th;
-    for (k, seg) in s.segments.iter().enumerate() {
+    if continuous {
+        let at = s.peak.at;
+        items.push(item(Role::Forces, Shape::Circle { center: at, radius: 0.3 * th }));
+        let content = format!("largest force {}", fmt_force(s.peak.force, units.force));
+        let side = if at.x <= (nodes[0].x + nodes[nodes.len() - 1].x) / 2.0 { HAlign::Left } else { HAlign::Right };
+        let dx = if side == HAlign::Left { 0.6 * th } else { -0.6 * th };
+        items.push(item(Role::Forces, text(at + Vec2::new(dx, -1.5 * fh), fh, 0.0, content, side, VAlign::Top)));
+    }
+    for (k, seg) in s.segments.iter().enumerate().filter(|_| !continuous) {
         let (a, b) = (nodes[k], nodes[k + 1]);
         let d = b - a;
         if d.hypot() == 0.0 {
@@ -115,14 +134,16 @@ pub(super) fn form_items(structure: &Structure, s: &Solution, th: f64, dim: &Dim
     // Bow's letters: spaces between load lines on the load side, the pole
     // space between profile and chord.
     let lh = 1.2 * th;
-    for k in 0..=n {
+    for k in (0..=n).filter(|_| !continuous) {
         let x = (nodes[k].x + nodes[k + 1].x) / 2.0;
         let at = Point::new(x, profile_y(nodes, x) + load_side * 2.5 * th);
         items.push(item(Role::Bow, text(at, lh, 0.0, space_letter(k), HAlign::Center, VAlign::Middle)));
     }
     // Beside the sag dimension (drawn to the right of sag.x), not on it.
     let pole_at = Point::new(s.sag.x - 1.5 * th, (s.sag.chord_y + s.sag.profile_y) / 2.0);
-    items.push(item(Role::Bow, text(pole_at, lh, 0.0, space_letter(pole_space), HAlign::Center, VAlign::Middle)));
+    if !continuous {
+        items.push(item(Role::Bow, text(pole_at, lh, 0.0, space_letter(pole_space), HAlign::Center, VAlign::Middle)));
+    }
 
     // Dimensions.
     let lowest = nodes
@@ -157,6 +178,10 @@ pub(super) fn form_items(structure: &Structure, s: &Solution, th: f64, dim: &Dim
             let d = linear(Point::new(*x, *foot), t.at, 90.0, Point::new(x + out, 0.0), "tower", dim);
             items.push(item(Role::Dimensions, Shape::Dimension(Box::new(d))));
         }
+    }
+    let continuous_loads = !structure.distributed().is_empty() || self_weight.is_some();
+    if continuous_loads {
+        items.extend(super::loads::load_items(structure, s, lowest - 9.0 * th, th, self_weight));
     }
     if let Some(c) = crate::solve::clearance(structure, s) {
         let (q, node) = (Point::new(c.x, c.deck_y), Point::new(c.x, c.profile_y));

@@ -8,6 +8,7 @@
 mod diagram;
 mod dimension;
 mod form;
+mod loads;
 pub mod nice;
 mod shapes;
 
@@ -27,6 +28,8 @@ pub struct LayoutOptions {
     pub diagram_at: Option<Point>,
     /// Text height in drawing units; proportioned to the span when `None`.
     pub text_height: Option<f64>,
+    /// Self-weight per unit length of the profile, drawn in the load diagram.
+    pub self_weight: Option<f64>,
 }
 
 /// What the layout decided, for the report and the summary.
@@ -91,7 +94,7 @@ pub fn layout(
         gap: 0.2 * th,
         decimals: nice::length_decimals(units.length) as i64,
     };
-    let mut items = form::form_items(structure, solution, th, &dim_style);
+    let mut items = form::form_items(structure, solution, th, &dim_style, options.self_weight);
     let mut taken = extents;
     for item in &items {
         if let Some(b) = item.shape.bounds() {

@@ -23,12 +23,23 @@ pub enum Role {
     Bow,
     /// Title and caution notes.
     Notes,
+    /// The loads drawn along the span: distributed loads to scale, point
+    /// loads as arrows.
+    LoadDiagram,
 }
 
 impl Role {
     /// Every role, in drawing order.
-    pub const ALL: [Role; 7] =
-        [Role::Profile, Role::Hangers, Role::Diagram, Role::Forces, Role::Dimensions, Role::Bow, Role::Notes];
+    pub const ALL: [Role; 8] = [
+        Role::Profile,
+        Role::Hangers,
+        Role::Diagram,
+        Role::Forces,
+        Role::Dimensions,
+        Role::Bow,
+        Role::Notes,
+        Role::LoadDiagram,
+    ];
 
     /// The key used on the command line (`--layer profile=NAME`) and in reports.
     #[must_use]
@@ -41,6 +52,7 @@ impl Role {
             Role::Dimensions => "dimensions",
             Role::Bow => "bow",
             Role::Notes => "notes",
+            Role::LoadDiagram => "load-diagram",
         }
     }
 
@@ -55,6 +67,7 @@ impl Role {
             Role::Dimensions => "HANGLINE-DIMENSIONS",
             Role::Bow => "HANGLINE-BOW",
             Role::Notes => "HANGLINE-NOTES",
+            Role::LoadDiagram => "HANGLINE-LOAD-DIAGRAM",
         }
     }
 
@@ -70,6 +83,7 @@ impl Role {
             Role::Dimensions => 4,
             Role::Bow => 30,
             Role::Notes => 7,
+            Role::LoadDiagram => 12,
         }
     }
 }

@@ -263,7 +263,8 @@ pub fn plan(file: &File<'_>, additions: &Additions, layers: &OutputLayers) -> Re
         let plot_style =
             table.find("0").and_then(|r| file.pairs_in(&r.span).find(|p| p.code == 390)).and_then(|p| p.handle());
         let mut added = 0;
-        for role in Role::ALL {
+        // A layer for each role that draws something.
+        for role in Role::ALL.into_iter().filter(|r| additions.items.iter().any(|i| i.role == *r)) {
             let name = layers.get(role);
             if table.find(name).is_none() && !summary.new_layers.iter().any(|n| crate::dxf::names_match(n, name)) {
                 pen.layer_record(table.handle, name, role.colour(), &linetype, plot_style);
@@ -480,8 +481,8 @@ mod tests {
         // largest (2F), and the seed is recorded.
         assert!(out.contains("  5\n30\n"), "{out}");
         assert!(out.contains("$HANDSEED\n  5\n"), "{out}");
-        // Seven layers added, count raised from 1 to 8.
-        assert!(out.contains("LAYER\n70\n     8\n"), "{out}");
+        // One layer added (only roles that draw something get one): 1 to 2.
+        assert!(out.contains("LAYER\n70\n     2\n"), "{out}");
     }
 
     #[test]

@@ -378,7 +378,7 @@ impl SolveArgs {
             read,
             form: if self.arch { Form::Arch } else { Form::Cable },
             given,
-            layout: LayoutOptions { force_scale: None, diagram_at, text_height: self.text_height },
+            layout: LayoutOptions { force_scale: None, diagram_at, text_height: self.text_height, self_weight: None },
             force_scale,
             layers,
         })
