@@ -28,7 +28,8 @@ fn writer(c: &mut Criterion) {
             let file = File::scan(bytes, &scan_options(&options.layers, layers.all())).expect("scans");
             let reading = read(&file, &options).expect("reads");
             let solution = solve(&reading.structure, Form::Cable, &[Condition::Sag(common::SAG)]).expect("solves");
-            let (additions, _) = layout(&reading.structure, &solution, reading.extents, &Default::default());
+            let (additions, _) =
+                layout(&reading.structure, &reading.structure, &solution, reading.extents, &Default::default());
             let mut out = Vec::with_capacity(bytes.len() + (1 << 20));
             write(&file, &additions, &layers, &mut out).expect("writes");
             assert!(out.len() > bytes.len(), "the additions are written");

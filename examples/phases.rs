@@ -22,7 +22,8 @@ fn main() {
         &[hangline::solve::Condition::Sag(4.5)],
     )
     .expect("solves");
-    let (adds, _) = hangline::layout::layout(&reading.structure, &s, reading.extents, &Default::default());
+    let (adds, _) =
+        hangline::layout::layout(&reading.structure, &reading.structure, &s, reading.extents, &Default::default());
     println!("solve+lay   {:?}", t.elapsed());
     let t = Instant::now();
     let mut v = Vec::with_capacity(bytes.len() + 100000);

@@ -165,7 +165,8 @@ pub fn prepare(bytes: &[u8], job: &Job) -> Result<(Outcome, Plan), Error> {
         let unit = reading.structure.units().force;
         layout_options.force_scale = Some(f.value * f.unit.map_or(1.0, |u| u.factor_to(unit)));
     }
-    let (additions, placement) = layout(&carried.structure, &solution, reading.extents, &layout_options);
+    let (additions, placement) =
+        layout(&carried.structure, &reading.structure, &solution, reading.extents, &layout_options);
     let (plan, summary) = plan(&file, &additions, &job.layers)?;
     Ok((Outcome { reading, carried, solution, placement, summary }, plan))
 }

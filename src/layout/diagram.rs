@@ -79,7 +79,16 @@ pub(super) fn diagram_items(
         fbox = fbox.union_pt(*p);
     }
     let force_size = fbox.width().max(fbox.height());
-    let scale = options.force_scale.unwrap_or_else(|| round_up(force_size / (0.45 * structure.span())));
+    // Fit the diagram to about half the span, but keep the load line long
+    // enough for its letters (1.6 text heights each).
+    let lettered_points = s.load_line.len().min(MAX_LETTERED) as f64;
+    let load_line_length = s.load_line.first().zip(s.load_line.last()).map_or(0.0, |(a, b)| (*b - *a).hypot());
+    let fit = force_size / (0.45 * structure.span());
+    let roomy = if lettered_points > 1.0 { load_line_length / (lettered_points * 1.6 * th) } else { fit };
+    let scale = options.force_scale.unwrap_or_else(|| {
+        let fitted = round_up(fit);
+        if fitted > roomy { round_down(roomy).max(round_up(fit / 4.0)) } else { fitted }
+    });
     let a0 = s.load_line[0];
     // Drawing position of a0.
     let at = options.diagram_at.unwrap_or_else(|| {

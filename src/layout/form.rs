@@ -55,6 +55,7 @@ fn deck_hit(segments: &[Line], p: Point, dir: Vec2) -> Option<Point> {
 
 pub(super) fn form_items(
     structure: &Structure,
+    drawn: &Structure,
     s: &Solution,
     th: f64,
     dim: &DimStyle,
@@ -111,9 +112,13 @@ pub(super) fn form_items(
         }
         let normal = Vec2::new(-d.y, d.x) / d.hypot();
         let normal = if normal.y * load_side > 0.0 { -normal } else { normal };
-        let at = a.midpoint(b) + normal * (0.5 * th + fh / 2.0);
         let content = format!("{} {}", member_name(k, pole_space), fmt_force(seg.force, units.force));
-        items.push(item(Role::Forces, text(at, fh, angle, content, HAlign::Center, VAlign::Middle)));
+        // Smaller text on short segments, so that neighbours do not run
+        // into each other (a glyph is up to about 0.75 of the height wide
+        // in common CAD fonts).
+        let h = fh.min(0.9 * d.hypot() / (0.75 * content.chars().count() as f64)).max(0.4 * fh);
+        let at = a.midpoint(b) + normal * (0.5 * th + h / 2.0);
+        items.push(item(Role::Forces, text(at, h, angle, content, HAlign::Center, VAlign::Middle)));
     }
 
     // Reactions above each support, reading outward from the span (clear
@@ -179,9 +184,9 @@ pub(super) fn form_items(
             items.push(item(Role::Dimensions, Shape::Dimension(Box::new(d))));
         }
     }
-    let continuous_loads = !structure.distributed().is_empty() || self_weight.is_some();
-    if continuous_loads {
-        items.extend(super::loads::load_items(structure, s, lowest - 9.0 * th, th, self_weight));
+    // The loads as drawn (before they were carried to hangers).
+    if !drawn.distributed().is_empty() || self_weight.is_some() {
+        items.extend(super::loads::load_items(drawn, s, lowest - 9.0 * th, th, self_weight));
     }
     if let Some(c) = crate::solve::clearance(structure, s) {
         let (q, node) = (Point::new(c.x, c.deck_y), Point::new(c.x, c.profile_y));

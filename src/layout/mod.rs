@@ -78,8 +78,12 @@ pub fn result_line(structure: &Structure, solution: &Solution) -> String {
 /// Lays out everything the tool adds for `solution`, beside `extents` (the
 /// user's drawing, when known).
 #[must_use]
+///
+/// `structure` is the one solved (distributed loads carried to hangers, if
+/// any); `drawn` the one read, whose loads the load diagram shows.
 pub fn layout(
     structure: &Structure,
+    drawn: &Structure,
     solution: &Solution,
     extents: Option<Rect>,
     options: &LayoutOptions,
@@ -94,7 +98,7 @@ pub fn layout(
         gap: 0.2 * th,
         decimals: nice::length_decimals(units.length) as i64,
     };
-    let mut items = form::form_items(structure, solution, th, &dim_style, options.self_weight);
+    let mut items = form::form_items(structure, drawn, solution, th, &dim_style, options.self_weight);
     let mut taken = extents;
     for item in &items {
         if let Some(b) = item.shape.bounds() {

@@ -1,12 +1,20 @@
 #!/usr/bin/env python3
-"""Writes the demo drawing demo-drawings/ambermoor-footbridge.dxf with ezdxf.
+"""Writes the demo drawings in demo-drawings/ with ezdxf. Invented scenarios,
+invented places and numbers:
 
-An invented scenario: a 42 m suspension footbridge over the Kestrel Water at
-Ambermoor (an invented place), its east bank higher than the west. Nine
-hangers at unequal spacing carry the deck; the hanger at the viewing bay
-carries more. All numbers are invented for the demo.
+- ambermoor-footbridge.dxf: a 42 m suspension footbridge over the Kestrel
+  Water at Ambermoor, its east bank higher than the west. Nine hangers at
+  unequal spacing carry the deck; the hanger at the viewing bay carries more.
+- harrowgate-deck.dxf: a 36 m suspension footbridge at Harrowgate Mill whose
+  deck load is drawn as distributed loads (surfacing and crowd over the whole
+  deck, a heavier stretch at the fishing platform) on the LOADS layer, with
+  the hanger positions on the HANGERS layer: the tool carries the deck load
+  to the hangers.
+- coldbeck-arch.dxf: a 24 m concrete arch at Coldbeck carrying its own weight
+  and the fill over its haunches, drawn as a distributed load: solved with
+  --arch --self-weight.
 
-    python tools/demo/make_demo.py            # writes the demo drawing
+    python tools/demo/make_demo.py            # writes the demo drawings
 """
 
 import os
@@ -24,7 +32,8 @@ from ezdxf.enums import TextEntityAlignment
 ezdxf.options.write_fixed_meta_data_for_testing = True
 
 HERE = os.path.dirname(os.path.abspath(__file__))
-OUT = os.path.join(HERE, "..", "..", "demo-drawings", "ambermoor-footbridge.dxf")
+DEMO = os.path.join(HERE, "..", "..", "demo-drawings")
+OUT = os.path.join(DEMO, "ambermoor-footbridge.dxf")
 
 
 def main() -> int:
@@ -76,7 +85,61 @@ def main() -> int:
                  dxfattribs={"layer": "TITLE"}).set_placement((-6.0, 15.0))
 
     doc.saveas(OUT)
+    harrowgate()
+    coldbeck()
     return 0
+
+
+def harrowgate() -> None:
+    doc = ezdxf.new("R2018", setup=True)
+    doc.header["$INSUNITS"] = 6  # metres
+    for name, colour in [("SUPPORTS", 1), ("LOADS", 3), ("HANGERS", 8), ("DECK", 5), ("STRUCTURE", 8), ("TITLE", 7)]:
+        doc.layers.add(name, color=colour)
+    msp = doc.modelspace()
+    msp.add_point((0.0, 10.0), dxfattribs={"layer": "SUPPORTS"})
+    msp.add_point((36.0, 10.0), dxfattribs={"layer": "SUPPORTS"})
+    for x in (0.0, 36.0):
+        msp.add_lwpolyline([(x - 0.3, 0.0), (x - 0.15, 10.0), (x + 0.15, 10.0), (x + 0.3, 0.0)],
+                           dxfattribs={"layer": "STRUCTURE"})
+    msp.add_line((-2.0, 2.0), (38.0, 2.0), dxfattribs={"layer": "DECK"})
+    # Hangers every 3 m.
+    for k in range(1, 12):
+        x = 3.0 * k
+        msp.add_line((x, 2.0), (x, 4.0), dxfattribs={"layer": "HANGERS"})
+    # Deck load: surfacing and crowd over the deck; over the fishing
+    # platform, heavier and rising toward its river end. One stretch per
+    # part of the span.
+    for x0, x1, label in ((0.0, 15.0, "w = 7.5 kN/m"), (15.0, 21.0, "11.5..13.5 kN/m"), (21.0, 36.0, "7.5 kN/m")):
+        msp.add_line((x0, 1.2), (x1, 1.2), dxfattribs={"layer": "LOADS"})
+        msp.add_text(label, height=0.3, dxfattribs={"layer": "LOADS"}).set_placement(
+            ((x0 + x1) / 2.0, 0.7), align=TextEntityAlignment.MIDDLE_CENTER)
+    msp.add_text("HARROWGATE MILL FOOTBRIDGE - DECK LOADS ON THE HANGERS (invented example)", height=0.5,
+                 dxfattribs={"layer": "TITLE"}).set_placement((-2.0, 14.0))
+    doc.saveas(os.path.join(DEMO, "harrowgate-deck.dxf"))
+
+
+def coldbeck() -> None:
+    doc = ezdxf.new("R2013", setup=True)
+    doc.header["$INSUNITS"] = 6  # metres
+    for name, colour in [("SUPPORTS", 1), ("LOADS", 3), ("STRUCTURE", 8), ("TITLE", 7)]:
+        doc.layers.add(name, color=colour)
+    msp = doc.modelspace()
+    # Springings.
+    msp.add_point((0.0, 0.0), dxfattribs={"layer": "SUPPORTS"})
+    msp.add_point((24.0, 0.0), dxfattribs={"layer": "SUPPORTS"})
+    for x0, x1 in ((-3.0, 0.0), (24.0, 27.0)):
+        msp.add_lwpolyline([(x0, -1.0), (x0, 1.0), (x1, 1.0), (x1, -1.0)], close=True,
+                           dxfattribs={"layer": "STRUCTURE"})
+    # Fill over the haunches: heavier near the springings, none at the crown.
+    msp.add_line((0.0, 9.0), (8.0, 9.0), dxfattribs={"layer": "LOADS"})
+    msp.add_text("q = 60..0 kN/m", height=0.35, dxfattribs={"layer": "LOADS"}).set_placement(
+        (4.0, 9.5), align=TextEntityAlignment.MIDDLE_CENTER)
+    msp.add_line((16.0, 9.0), (24.0, 9.0), dxfattribs={"layer": "LOADS"})
+    msp.add_text("q = 0..60 kN/m", height=0.35, dxfattribs={"layer": "LOADS"}).set_placement(
+        (20.0, 9.5), align=TextEntityAlignment.MIDDLE_CENTER)
+    msp.add_text("COLDBECK ARCH - OWN WEIGHT AND FILL (invented example)", height=0.5,
+                 dxfattribs={"layer": "TITLE"}).set_placement((-3.0, 13.0))
+    doc.saveas(os.path.join(DEMO, "coldbeck-arch.dxf"))
 
 
 if __name__ == "__main__":
