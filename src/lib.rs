@@ -33,6 +33,9 @@
 //!     layout: Default::default(),
 //!     force_scale: None,
 //!     layers: Default::default(),
+//!     self_weight: None,
+//!     axial_stiffness: None,
+//!     chord_tolerance: None,
 //! };
 //! let mut output = Vec::new();
 //! let outcome = run(&drawing, &job, &mut output)?;

@@ -12,7 +12,7 @@ use crate::error::Error;
 use crate::layout::{LayoutOptions, Placement, layout};
 use crate::model::ModelError;
 use crate::read::{ReadOptions, Reading, read, scan_options};
-use crate::solve::{Condition, Form, Solution, solve};
+use crate::solve::{Condition, Form, Solution, SolveOptions, solve_with};
 use crate::units::{ForceUnit, LengthUnit, Units};
 use crate::write::{OutputLayers, Plan, Summary, WriteError, plan};
 
@@ -50,6 +50,21 @@ pub enum Given {
     MaxForce(ForceValue),
     /// `--level-at X` (drawing x).
     LevelAt(f64),
+    /// `--length S`.
+    Length(LengthValue),
+    /// `--unstressed-length S0`.
+    UnstressedLength(LengthValue),
+}
+
+/// A force per length as given on the command line.
+#[derive(Clone, Copy, Debug, PartialEq)]
+pub struct IntensityValue {
+    /// The value.
+    pub value: f64,
+    /// Its force unit.
+    pub force: ForceUnit,
+    /// Its length unit.
+    pub length: LengthUnit,
 }
 
 /// What to do with a drawing.
@@ -68,6 +83,12 @@ pub struct Job {
     pub force_scale: Option<ForceValue>,
     /// Output layer names.
     pub layers: OutputLayers,
+    /// Self-weight per unit length of the profile (`--self-weight`).
+    pub self_weight: Option<IntensityValue>,
+    /// Axial stiffness EA (`--axial-stiffness`).
+    pub axial_stiffness: Option<ForceValue>,
+    /// Chord tolerance of the drawn profile for continuous loads.
+    pub chord_tolerance: Option<LengthValue>,
 }
 
 /// What came of a job.
@@ -85,6 +106,18 @@ pub struct Outcome {
     pub summary: Summary,
 }
 
+/// The solver's options in the model's units.
+pub fn solve_options(job: &Job, units: Units) -> SolveOptions {
+    SolveOptions {
+        self_weight: job
+            .self_weight
+            .map(|w| w.value * w.force.factor_to(units.force) / w.length.factor_to(units.length)),
+        axial_stiffness: job.axial_stiffness.map(|f| f.value * f.unit.map_or(1.0, |u| u.factor_to(units.force))),
+        chord_tolerance: job.chord_tolerance.map(|l| l.value * l.unit.map_or(1.0, |u| u.factor_to(units.length))),
+        ..SolveOptions::default()
+    }
+}
+
 /// Turns the user's conditions into the solver's, in the model's units.
 pub fn conditions(given: &[Given], form: Form, units: Units) -> Result<Vec<Condition>, Error> {
     let force = |f: ForceValue| f.value * f.unit.map_or(1.0, |u| u.factor_to(units.force));
@@ -97,6 +130,8 @@ pub fn conditions(given: &[Given], form: Form, units: Units) -> Result<Vec<Condi
                 Given::Thrust(f) => Condition::Thrust(force(f)),
                 Given::MaxForce(f) => Condition::MaxForce(force(f)),
                 Given::LevelAt(x) => Condition::LevelAt(x),
+                Given::Length(l) => Condition::Length(length(l)),
+                Given::UnstressedLength(l) => Condition::UnstressedLength(length(l)),
                 Given::Sag(l) if form == Form::Cable => Condition::Sag(length(l)),
                 Given::Rise(l) if form == Form::Arch => Condition::Sag(length(l)),
                 Given::Sag(_) => {
@@ -153,14 +188,17 @@ pub fn run(bytes: &[u8], job: &Job, out: &mut dyn Write) -> Result<Outcome, Erro
 pub fn prepare(bytes: &[u8], job: &Job) -> Result<(Outcome, Plan), Error> {
     let file = File::scan(bytes, &scan_options(&job.read.layers, job.layers.all()))?;
     let reading = read(&file, &job.read)?;
-    if !reading.structure.has_loads() {
+    let units = reading.structure.units();
+    let options = solve_options(job, units);
+    if !reading.structure.has_loads() && options.self_weight.is_none() {
         return Err(ModelError::NoLoads { layer: job.read.layers.loads.clone() }.into());
     }
-    let conditions = conditions(&job.given, job.form, reading.structure.units())?;
+    let conditions = conditions(&job.given, job.form, units)?;
     let carried = carry(&reading.structure, &reading.hangers);
-    let mut solution = solve(&carried.structure, job.form, &conditions)?;
+    let mut solution = solve_with(&carried.structure, job.form, &conditions, &options)?;
     solution.warnings.extend(sanity(&reading, &conditions));
     let mut layout_options = job.layout;
+    layout_options.self_weight = options.self_weight;
     if let Some(f) = job.force_scale {
         let unit = reading.structure.units().force;
         layout_options.force_scale = Some(f.value * f.unit.map_or(1.0, |u| u.factor_to(unit)));
@@ -201,6 +239,9 @@ mod tests {
             layout: LayoutOptions::default(),
             force_scale: None,
             layers: OutputLayers::default(),
+            self_weight: None,
+            axial_stiffness: None,
+            chord_tolerance: None,
         }
     }
 

@@ -113,13 +113,15 @@ pub(super) fn diagram_items(
     // letter only the ends.
     let count = s.load_line.len();
     let step = count.div_ceil(MAX_RAYS).max(1);
-    let lettered = count <= MAX_LETTERED;
+    // Panel loads of a continuous load have no letters of their own.
+    let continuous = s.node_kinds.iter().any(|k| matches!(k, crate::solve::NodeKind::Panel));
+    let lettered = count <= MAX_LETTERED && !continuous;
     for (k, f) in s.load_line.iter().enumerate() {
         let p = map(*f);
         if k % step == 0 || k + 1 == count {
             items.push(item(Role::Diagram, Shape::Line(Line::new(p, pole))));
         }
-        if lettered || k == 0 || k + 1 == count {
+        if lettered || (!continuous && (k == 0 || k + 1 == count)) {
             // Letters outward along the ray, away from the pole.
             let away = p - pole;
             let away = if away.hypot() > 0.0 { away / away.hypot() } else { Vec2::new(-1.0, 0.0) };
@@ -130,7 +132,8 @@ pub(super) fn diagram_items(
     items.push(item(Role::Diagram, Shape::Circle { center: pole, radius: 0.25 * th }));
     let out = pole - map(a0.midpoint(*s.load_line.last().unwrap_or(&a0)));
     let out = if out.hypot() > 0.0 { out / out.hypot() } else { Vec2::new(1.0, 0.0) };
-    let pole_label = format!("{} (pole)", space_letter(pole_space).to_lowercase());
+    let pole_label =
+        if continuous { "pole".to_string() } else { format!("{} (pole)", space_letter(pole_space).to_lowercase()) };
     let align = if out.x >= 0.0 { HAlign::Left } else { HAlign::Right };
     items.push(item(Role::Bow, text(pole + out * (1.0 * th), lh, pole_label, align, VAlign::Middle)));
     if let Some(c) = s.closing_point {

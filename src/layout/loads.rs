@@ -31,19 +31,19 @@ pub(super) fn load_items(
     let (xl, xr) = (structure.left().x(), structure.right().x());
     let mut items = vec![item(Shape::Line(Line::new(Point::new(xl, base), Point::new(xr, base))))];
 
-    // The intensity per horizontal length, self-weight included, on pieces.
-    let mut pieces: Vec<(f64, f64, f64, f64)> =
-        structure.distributed().iter().map(|d| (d.x0, d.x1, d.w0, d.w1)).collect();
+    // The intensity per horizontal length: the distributed loads, and the
+    // self-weight (q·ds/dx on each segment of the profile) as one outline.
+    let pieces: Vec<(f64, f64, f64, f64)> = structure.distributed().iter().map(|d| (d.x0, d.x1, d.w0, d.w1)).collect();
+    let mut weight: Vec<(f64, f64)> = Vec::new();
     if let Some(q) = self_weight {
         for w in solution.nodes.windows(2) {
             let dx = w[1].x - w[0].x;
             if dx > 0.0 {
-                let per_dx = q * (w[1] - w[0]).hypot() / dx;
-                pieces.push((w[0].x, w[1].x, per_dx, per_dx));
+                weight.push(((w[0].x + w[1].x) / 2.0, q * (w[1] - w[0]).hypot() / dx));
             }
         }
     }
-    let w_max = pieces.iter().map(|p| p.2.max(p.3)).fold(0.0, f64::max);
+    let w_max = pieces.iter().map(|p| p.2.max(p.3)).chain(weight.iter().map(|w| w.1)).fold(0.0, f64::max);
     let height = 3.0 * th;
     if w_max > 0.0 {
         // A round intensity scale so that the largest stands `height` tall.
@@ -53,6 +53,16 @@ pub(super) fn load_items(
             let outline =
                 vec![Point::new(x0, base), Point::new(x0, y(w0)), Point::new(x1, y(w1)), Point::new(x1, base)];
             items.push(item(Shape::Polyline { points: outline, closed: false }));
+        }
+        if let (Some(first), Some(last)) = (weight.first(), weight.last()) {
+            let mut outline = vec![Point::new(xl, base), Point::new(xl, y(first.1))];
+            outline.extend(weight.iter().map(|&(x, w)| Point::new(x, y(w))));
+            outline.extend([Point::new(xr, y(last.1)), Point::new(xr, base)]);
+            items.push(Item {
+                role: Role::LoadDiagram,
+                shape: Shape::Polyline { points: outline, closed: false },
+                colour: Some(8),
+            });
         }
         for d in structure.distributed() {
             let value = if d.w0 == d.w1 {

@@ -60,11 +60,24 @@ pub fn result_line(structure: &Structure, solution: &Solution) -> String {
         crate::solve::Form::Cable => "sag",
         crate::solve::Form::Arch => "rise",
     };
+    let continuous = solution.node_kinds.iter().any(|k| matches!(k, crate::solve::NodeKind::Panel));
+    let largest = if continuous {
+        format!(
+            "{} at ({}, {})",
+            nice::fmt_force(solution.peak.force, u.force),
+            nice::fmt_length(solution.peak.at.x, u.length),
+            nice::fmt_length(solution.peak.at.y, u.length)
+        )
+    } else {
+        format!(
+            "{} in {}",
+            nice::fmt_force(solution.max_force(), u.force),
+            nice::member_name(solution.max_segment, structure.loads().len() + 1)
+        )
+    };
     format!(
-        "H = {}; largest force {} in {}; {word} {} {} at x = {}; span {} {}; length {} {}",
+        "H = {}; largest force {largest}; {word} {} {} at x = {}; span {} {}; length {} {}",
         nice::fmt_force(solution.thrust, u.force),
-        nice::fmt_force(solution.max_force(), u.force),
-        nice::member_name(solution.max_segment, structure.loads().len() + 1),
         nice::fmt_length(solution.sag.value, u.length),
         u.length,
         nice::fmt_length(solution.sag.x, u.length),

@@ -4,7 +4,7 @@
 
 use kurbo::Point;
 
-use super::types::{Condition, Form, SolveError, UsedCondition};
+use super::types::{Condition, Form, SolveError, SolveOptions, UsedCondition};
 use crate::model::{LIMIT, Structure, Support, fmt_num};
 use crate::units::Units;
 
@@ -25,6 +25,10 @@ pub(crate) enum Cond {
     MaxForce(f64),
     /// `--level-at`.
     LevelAt(f64),
+    /// `--length`: the length of the profile.
+    Length(f64),
+    /// `--unstressed-length`: the unstressed length (needs an axial stiffness).
+    Unstressed(f64),
 }
 
 impl Cond {
@@ -44,6 +48,8 @@ impl Cond {
             Cond::Sag(f) => (if form == Form::Arch { "rise" } else { "sag" }, None, Some(f)),
             Cond::MaxForce(t) => ("max-force", None, Some(t)),
             Cond::LevelAt(x) => ("level-at", None, Some(x)),
+            Cond::Length(l) => ("length", None, Some(l)),
+            Cond::Unstressed(l) => ("unstressed-length", None, Some(l)),
         };
         UsedCondition { kind, point, value }
     }
@@ -84,7 +90,19 @@ impl Namer {
             Cond::Sag(f) => format!("{} {}", self.sag_flag(), self.length(f)),
             Cond::MaxForce(t) => format!("--max-force {}", self.force(t)),
             Cond::LevelAt(x) => format!("--level-at {}", fmt_num(x)),
+            Cond::Length(l) => format!("--length {}", self.length(l)),
+            Cond::Unstressed(l) => format!("--unstressed-length {}", self.length(l)),
         }
+    }
+
+    /// The self-weight option, e.g. `--self-weight 0.5 kN/m`.
+    pub fn self_weight(&self, q: f64) -> String {
+        format!("--self-weight {} {}/{}", fmt_num(q), self.units.force.symbol(), self.units.length.symbol())
+    }
+
+    /// The axial stiffness option, e.g. `--axial-stiffness 2e5 kN`.
+    pub fn stiffness(&self, ea: f64) -> String {
+        format!("--axial-stiffness {}", self.force(ea))
     }
 
     /// Several conditions as `a, b and c` (`none` when empty).
@@ -104,8 +122,66 @@ impl Namer {
 }
 
 /// The structure's fixed supports followed by the user's conditions, each
-/// checked, and exactly three of them.
+/// checked, and exactly three of them (default options).
+#[cfg(test)]
 pub(crate) fn gather(structure: &Structure, form: Form, given: &[Condition]) -> Result<Vec<Cond>, SolveError> {
+    gather_with(structure, form, given, &SolveOptions::default())
+}
+
+/// Checks the options: a self-weight and an axial stiffness must be positive
+/// forces (per length), the tolerances positive, at least one iteration.
+pub(crate) fn check_options(namer: &Namer, options: &SolveOptions) -> Result<(), SolveError> {
+    if let Some(q) = options.self_weight {
+        if !(number_ok(q) && q > 0.0) {
+            return Err(SolveError::BadValue {
+                condition: namer.self_weight(q),
+                problem: "the self-weight must be a positive force per unit length of the profile; give it without a sign, or leave it out".into(),
+            });
+        }
+    }
+    if let Some(ea) = options.axial_stiffness {
+        if !(number_ok(ea) && ea > 0.0) {
+            return Err(SolveError::BadValue {
+                condition: namer.stiffness(ea),
+                problem:
+                    "the axial stiffness EA must be a positive force (Young's modulus times the cross-section area)"
+                        .into(),
+            });
+        }
+    }
+    if let Some(t) = options.chord_tolerance {
+        if !(number_ok(t) && t > 0.0) {
+            return Err(SolveError::BadValue {
+                condition: format!("chord tolerance {}", namer.length(t)),
+                problem: "the chord tolerance must be a positive length: how far the drawn chords may stray from the exact curve".into(),
+            });
+        }
+    }
+    let it = options.iteration_tolerance;
+    if !(it.is_finite() && it > 0.0 && it < 1.0) {
+        return Err(SolveError::BadValue {
+            condition: format!("iteration tolerance {}", fmt_num(it)),
+            problem: "the iteration tolerance must be a fraction between 0 and 1 of the total load (1e-13 by default)"
+                .into(),
+        });
+    }
+    if options.max_iterations == 0 {
+        return Err(SolveError::BadValue {
+            condition: "max iterations 0".into(),
+            problem: "at least one self-weight iteration is needed (200 by default)".into(),
+        });
+    }
+    Ok(())
+}
+
+/// The structure's fixed supports followed by the user's conditions, each
+/// checked against the structure and the options, and exactly three of them.
+pub(crate) fn gather_with(
+    structure: &Structure,
+    form: Form,
+    given: &[Condition],
+    options: &SolveOptions,
+) -> Result<Vec<Cond>, SolveError> {
     let namer = Namer { units: structure.units(), form };
     let mut conds = Vec::with_capacity(given.len() + 2);
     if let Some(p) = structure.left().fixed_point() {
@@ -121,14 +197,26 @@ pub(crate) fn gather(structure: &Structure, form: Form, given: &[Condition]) -> 
             Condition::Sag(f) => Cond::Sag(f),
             Condition::MaxForce(t) => Cond::MaxForce(t),
             Condition::LevelAt(x) => Cond::LevelAt(x),
-            Condition::Length(_) | Condition::UnstressedLength(_) => {
-                return Err(SolveError::BadValue {
-                    condition: "--length".into(),
-                    problem: "a length condition needs the continuous-load solver".into(),
-                });
-            }
+            Condition::Length(l) => Cond::Length(l),
+            Condition::UnstressedLength(l) => Cond::Unstressed(l),
         };
         check_value(structure, &namer, &c)?;
+        if let Cond::Unstressed(_) = c {
+            if options.axial_stiffness.is_none() {
+                return Err(bad(
+                    &namer,
+                    &c,
+                    "the unstressed length needs the cable's axial stiffness: add --axial-stiffness EA (a force), or give --length S for the length as it hangs".into(),
+                ));
+            }
+            if form == Form::Arch {
+                return Err(bad(
+                    &namer,
+                    &c,
+                    "the unstressed length is for a cable; for an arch give --length S, its length under load".into(),
+                ));
+            }
+        }
         conds.push(c);
     }
     if conds.len() != 3 {
@@ -183,6 +271,11 @@ fn check_value(structure: &Structure, namer: &Namer, c: &Cond) -> Result<(), Sol
             format!("x must lie strictly inside the span, {span_text}; the profile is level in a segment between them"),
         )),
         Cond::LevelAt(x) if structure.all_vertical() => level_at_node(structure, namer, c, x),
+        Cond::Length(l) | Cond::Unstressed(l) if !(number_ok(l) && l > 0.0) => Err(bad(
+            namer,
+            c,
+            "the length must be a positive length, measured along the profile from support to support".into(),
+        )),
         _ => Ok(()),
     }
 }

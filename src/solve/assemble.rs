@@ -114,7 +114,7 @@ pub(crate) fn build(
 }
 
 /// Where the line through the pole parallel to the chord meets the line a₀aₙ.
-fn closing_point(pole: Point, a0: Point, an: Point, chord: Vec2) -> Option<Point> {
+pub(crate) fn closing_point(pole: Point, a0: Point, an: Point, chord: Vec2) -> Option<Point> {
     let line = an - a0;
     let den = chord.cross(line);
     if den.is_nan() || den.abs() <= 1e-14 * chord.hypot() * line.hypot() {
@@ -140,7 +140,7 @@ fn equilibrium(poly: &Polygon<f64>, frame: &Frame, s: f64) -> f64 {
 }
 
 /// The heights found on tower axes, with warnings when off the drawn tower.
-fn towers(
+pub(crate) fn towers(
     structure: &Structure,
     first: Point,
     last: Point,

@@ -53,7 +53,7 @@ pub(crate) fn row(beam: &Beam, frame: &Frame, c: &Cond, s: f64) -> Option<Row> {
         Cond::LevelAt(x) => Row { a: [0.0, 1.0, beam.cum[beam.segment_at(x - frame.x0)] / w], e: 0.0 },
         Cond::Thrust(h) => Row { a: [0.0, 0.0, 1.0], e: s * w / h },
         Cond::Sag(f) => Row { a: [0.0, 0.0, 1.0], e: s * f * w / beam.m_max },
-        Cond::MaxForce(_) => return None,
+        Cond::MaxForce(_) | Cond::Length(_) | Cond::Unstressed(_) => return None,
     })
 }
 

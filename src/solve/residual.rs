@@ -31,6 +31,19 @@ pub(crate) fn residual<S: Num>(c: &Cond, frame: &Frame, poly: &Polygon<S>, s: f6
             let r = poly.rays[k];
             (r[0] * r[0] + r[1] * r[1]).root() - S::c(t)
         }
+        // The length of the polygon: the profile's length under point loads.
+        // Length conditions are solved and checked on the exact curve by
+        // `continuous`; the polygon's own stretch needs the axial stiffness,
+        // which this residual does not know, so the unstressed length is
+        // measured here as if the profile were inextensible.
+        Cond::Length(l) | Cond::Unstressed(l) => {
+            let mut sum = S::c(0.0);
+            for w in nodes.windows(2) {
+                let (dx, dy) = (w[1][0] - w[0][0], w[1][1] - w[0][1]);
+                sum = sum + (dx * dx + dy * dy).root();
+            }
+            sum - S::c(l)
+        }
     }
 }
 
@@ -51,6 +64,7 @@ pub(crate) fn relative(c: &Cond, frame: &Frame, poly: &Polygon<f64>, s: f64) -> 
     match *c {
         Cond::Thrust(h) => r / h,
         Cond::MaxForce(t) => r / t,
+        Cond::Length(l) | Cond::Unstressed(l) => r / l,
         Cond::LevelAt(x) => {
             let t = poly.rays[segment_at(poly, x - frame.x0)];
             r / t[0].hypot(t[1])

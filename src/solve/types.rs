@@ -122,7 +122,7 @@ pub struct Peak {
 #[derive(Clone, Debug, PartialEq, Serialize)]
 pub struct UsedCondition {
     /// `left-support`, `right-support`, `through`, `thrust`, `sag`, `rise`,
-    /// `max-force` or `level-at`.
+    /// `max-force`, `level-at`, `length` or `unstressed-length`.
     pub kind: &'static str,
     /// The point, for point conditions.
     #[serde(skip_serializing_if = "Option::is_none")]
@@ -191,7 +191,9 @@ pub struct Solution {
     /// Cable or arch.
     pub form: Form,
     /// Load line a₀ … aₙ in force space (force units), a₀ at the origin and
-    /// aₖ = aₖ₋₁ + Pₖ: n + 1 points.
+    /// aₖ = aₖ₋₁ + Pₖ: n + 1 points. With continuous loads the Pₖ are the
+    /// nodal loads of the n interior nodes (the loads at the supports are in
+    /// [`Solution::at_supports`]).
     pub load_line: Vec<Point>,
     /// The pole O in force space.
     pub pole: Point,
@@ -199,14 +201,16 @@ pub struct Solution {
     /// supports) meets the line a₀aₙ, in force space; `None` if parallel.
     pub closing_point: Option<Point>,
     /// Polygon nodes: the left support, one node per load left to right, the
-    /// right support: n + 2 points.
+    /// right support: n + 2 points. With continuous loads, one node per panel
+    /// point (see [`Solution::node_kinds`]), each on the exact curve.
     pub nodes: Vec<Point>,
     /// Segments between consecutive nodes: n + 1.
     pub segments: Vec<Segment>,
     /// Force of each support on the structure, left then right.
     pub reactions: [Vec2; 2],
     /// Horizontal component of the force at the left support (> 0). For
-    /// vertical loads it is the same in every segment: the pole distance H.
+    /// vertical loads (and continuous ones) it is the same in every segment:
+    /// the pole distance H.
     pub thrust: f64,
     /// The largest vertical chord-to-profile distance and where.
     pub sag: Sag,

@@ -8,8 +8,8 @@ use clap::{Args, Parser, Subcommand};
 use kurbo::Point;
 
 use hangline::layout::{LayoutOptions, Role};
-use hangline::pipeline::{ForceValue, Given, Job, LengthValue};
-use hangline::read::label::{parse_quantity_force, parse_quantity_length};
+use hangline::pipeline::{ForceValue, Given, IntensityValue, Job, LengthValue};
+use hangline::read::label::{parse_intensity, parse_quantity_force, parse_quantity_length};
 use hangline::read::{InputLayers, ReadOptions};
 use hangline::solve::Form;
 use hangline::units::{ForceUnit, LengthUnit};
@@ -145,6 +145,28 @@ pub struct SolveArgs {
     /// The profile is level (its low point, or an arch's crown) at this x.
     #[arg(long, value_name = "X", allow_hyphen_values = true)]
     pub level_at: Option<String>,
+    /// The length of the profile between the supports (counts as one
+    /// condition), e.g. 37.2 or "37.2 m".
+    #[arg(long, value_name = "LENGTH", allow_hyphen_values = true)]
+    pub length: Option<String>,
+    /// The cable's unstressed length (a condition; needs
+    /// --axial-stiffness): the length to cut.
+    #[arg(long, value_name = "LENGTH", allow_hyphen_values = true)]
+    pub unstressed_length: Option<String>,
+    /// Self-weight per unit length of the profile, acting along it, e.g.
+    /// "0.45 kN/m"; for an arch also as section area × unit weight, e.g.
+    /// "0.96 m2 x 25 kN/m3". The shape and its weight are found together.
+    #[arg(long, value_name = "WEIGHT", allow_hyphen_values = true)]
+    pub self_weight: Option<String>,
+    /// Axial stiffness EA of the cable, e.g. "150 MN": reports the
+    /// unstressed length (with --self-weight, the weight is per unstressed
+    /// length).
+    #[arg(long, value_name = "FORCE", allow_hyphen_values = true)]
+    pub axial_stiffness: Option<String>,
+    /// Largest distance between the drawn profile and the exact curve where
+    /// loads are continuous (default: span / 10,000).
+    #[arg(long, value_name = "LENGTH", allow_hyphen_values = true)]
+    pub chord_tolerance: Option<String>,
     /// Force diagram scale: force per drawing unit, e.g. "10 kN" (default:
     /// a round scale that fits).
     #[arg(long, value_name = "FORCE", allow_hyphen_values = true)]
@@ -210,6 +232,61 @@ fn parse_length(s: &str, flag: &str) -> Result<LengthValue> {
         bail!("{flag} '{s}' must be a positive length below 1e12");
     }
     Ok(LengthValue { value, unit })
+}
+
+/// A self-weight: a force per length ("0.45 kN/m"), or a section area
+/// times a unit weight ("0.96 m2 x 25 kN/m3").
+fn parse_self_weight(s: &str) -> Result<IntensityValue> {
+    let flag = "--self-weight";
+    let product = [" x ", " X ", "*", "\u{d7}"].iter().find_map(|sep| s.split_once(sep));
+    if let Some((area, unit_weight)) = product {
+        let (a, a_unit) = parse_power(area.trim(), 2, flag)?;
+        let (g, g_force, g_unit) = parse_unit_weight(unit_weight.trim(), flag)?;
+        // A [a_unit²] · γ [F/g_unit³] = A·(a_unit→g_unit)²·γ [F/g_unit]
+        let w = a * a_unit.factor_to(g_unit).powi(2) * g;
+        if !(w > 0.0 && w.is_finite()) {
+            bail!("{flag} '{s}' must be a positive weight");
+        }
+        return Ok(IntensityValue { value: w, force: g_force, length: g_unit });
+    }
+    let w = parse_intensity(s).map_err(|e| anyhow!("{flag} {e}"))?;
+    if w.w0 != w.w1 {
+        bail!("{flag} '{s}': give one value per unit length, such as \"0.45 kN/m\"");
+    }
+    Ok(IntensityValue { value: w.w0, force: w.force, length: w.length })
+}
+
+/// A number with a length unit raised to `power` ("0.96 m2", "0.96 m²").
+fn parse_power(s: &str, power: u8, flag: &str) -> Result<(f64, LengthUnit)> {
+    let superscript = if power == 2 { '\u{b2}' } else { '\u{b3}' };
+    let digit = char::from(b'0' + power);
+    let t = s.trim_end_matches([digit, superscript]);
+    if t.len() == s.len() {
+        bail!("{flag}: '{s}' needs a unit to the power {power}, such as 'm{power}'");
+    }
+    let (v, unit) = parse_quantity_length(t).map_err(|e| anyhow!("{flag} {e}"))?;
+    let unit = unit.ok_or_else(|| anyhow!("{flag}: '{s}' needs a unit, such as 'm{power}'"))?;
+    if !(v > 0.0 && v.is_finite()) {
+        bail!("{flag}: '{s}' must be positive");
+    }
+    Ok((v, unit))
+}
+
+/// A unit weight ("25 kN/m3", "150 pcf").
+fn parse_unit_weight(s: &str, flag: &str) -> Result<(f64, ForceUnit, LengthUnit)> {
+    if let Some(v) = s.strip_suffix("pcf") {
+        let v: f64 = v.trim().parse().map_err(|_| anyhow!("{flag}: '{s}' is not a unit weight"))?;
+        return Ok((v, ForceUnit::PoundForce, LengthUnit::Foot));
+    }
+    let (number, per) =
+        s.split_once('/').ok_or_else(|| anyhow!("{flag}: '{s}' is not a unit weight; write it as '25 kN/m3'"))?;
+    let (v, force) = parse_quantity_force(number.trim()).map_err(|e| anyhow!("{flag} {e}"))?;
+    let force = force.ok_or_else(|| anyhow!("{flag}: '{s}' needs a force unit, such as '25 kN/m3'"))?;
+    let (_, length) = parse_power(&format!("1 {}", per.trim()), 3, flag)?;
+    if !(v > 0.0 && v.is_finite()) {
+        bail!("{flag}: '{s}' must be positive");
+    }
+    Ok((v, force, length))
 }
 
 fn parse_unit<T: std::str::FromStr<Err = String>>(s: &str, flag: &str) -> Result<T> {
@@ -326,6 +403,11 @@ impl SolveArgs {
             rise: pick(&self.rise, &defaults.rise),
             max_force: pick(&self.max_force, &defaults.max_force),
             level_at: pick(&self.level_at, &defaults.level_at),
+            length: pick(&self.length, &defaults.length),
+            unstressed_length: pick(&self.unstressed_length, &defaults.unstressed_length),
+            self_weight: pick(&self.self_weight, &defaults.self_weight),
+            axial_stiffness: pick(&self.axial_stiffness, &defaults.axial_stiffness),
+            chord_tolerance: pick(&self.chord_tolerance, &defaults.chord_tolerance),
             force_scale: pick(&self.force_scale, &defaults.force_scale),
             diagram_at: pick(&self.diagram_at, &defaults.diagram_at),
             text_height: self.text_height.or(defaults.text_height),
@@ -373,6 +455,17 @@ impl SolveArgs {
         {
             bail!("--text-height must be a positive length in drawing units");
         }
+        if let Some(s) = &self.length {
+            given.push(Given::Length(parse_length(s, "--length")?));
+        }
+        if let Some(s) = &self.unstressed_length {
+            given.push(Given::UnstressedLength(parse_length(s, "--unstressed-length")?));
+        }
+        let self_weight = self.self_weight.as_deref().map(parse_self_weight).transpose()?;
+        let axial_stiffness =
+            self.axial_stiffness.as_deref().map(|s| parse_force(s, "--axial-stiffness")).transpose()?;
+        let chord_tolerance =
+            self.chord_tolerance.as_deref().map(|s| parse_length(s, "--chord-tolerance")).transpose()?;
         let diagram_at = self.diagram_at.as_deref().map(|s| parse_point(s, "--diagram-at")).transpose()?;
         Ok(Job {
             read,
@@ -381,6 +474,9 @@ impl SolveArgs {
             layout: LayoutOptions { force_scale: None, diagram_at, text_height: self.text_height, self_weight: None },
             force_scale,
             layers,
+            self_weight,
+            axial_stiffness,
+            chord_tolerance,
         })
     }
 }

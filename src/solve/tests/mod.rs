@@ -1,18 +1,25 @@
-//! Tests of [`super::solve`]: published references, invented cases, every
-//! error path, and properties over random load sets.
+//! Tests of [`super::solve`] and [`super::solve_with`]: published
+//! references, invented cases, every error path, and properties over random
+//! load sets.
 //!
 //! Numbers not taken from a cited source are invented for these tests.
 
+mod catenary;
+mod distributed;
+mod elastic;
 mod errors;
+mod hard;
 mod inclined;
+mod length;
 mod props;
+mod props_continuous;
 mod references;
 mod towers;
 
 use kurbo::{Point, Vec2};
 
-use super::{Condition, Form, Solution, SolveError, solve};
-use crate::model::{Load, Origin, Structure, Support};
+use super::{Condition, Form, Solution, SolveError, SolveOptions, solve, solve_with};
+use crate::model::{DistributedLoad, Load, Origin, Structure, Support};
 use crate::units::{ForceUnit, LengthUnit, Units};
 
 pub(super) fn origin(x: f64, y: f64) -> Origin {
@@ -47,6 +54,61 @@ pub(super) fn m_kn() -> Units {
 
 pub(super) fn structure(units: Units, left: Support, right: Support, loads: Vec<Load>) -> Structure {
     Structure::new(units, vec![left, right], loads, Vec::new(), None, "SUPPORTS").expect("test structure is valid")
+}
+
+/// A structure with distributed loads too.
+pub(super) fn spread(
+    units: Units,
+    left: Support,
+    right: Support,
+    loads: Vec<Load>,
+    distributed: Vec<DistributedLoad>,
+) -> Structure {
+    Structure::new(units, vec![left, right], loads, distributed, None, "SUPPORTS").expect("test structure is valid")
+}
+
+/// A distributed load from `w0` at `x0` to `w1` at `x1`.
+pub(super) fn stretch(x0: f64, x1: f64, w0: f64, w1: f64) -> DistributedLoad {
+    DistributedLoad { x0, x1, w0, w1, origin: origin(x0, 0.0) }
+}
+
+/// Options with a self-weight and an axial stiffness.
+pub(super) fn opts(self_weight: Option<f64>, axial_stiffness: Option<f64>) -> SolveOptions {
+    SolveOptions { self_weight, axial_stiffness, ..SolveOptions::default() }
+}
+
+pub(super) fn solved_with(s: &Structure, form: Form, c: &[Condition], o: &SolveOptions) -> Solution {
+    match solve_with(s, form, c, o) {
+        Ok(sol) => sol,
+        Err(e) => panic!("expected a solution, got: {e}"),
+    }
+}
+
+pub(super) fn failed_with(s: &Structure, form: Form, c: &[Condition], o: &SolveOptions) -> (SolveError, String) {
+    match solve_with(s, form, c, o) {
+        Ok(sol) => panic!("expected an error, got nodes {:?}", &sol.nodes[..sol.nodes.len().min(5)]),
+        Err(e) => {
+            let m = e.to_string();
+            (e, m)
+        }
+    }
+}
+
+/// Largest distance, measured square to the chord, between each drawn
+/// segment and the curve `y(x)` it spans (sampled at 64 points per segment).
+pub(super) fn chord_error(sol: &Solution, y: impl Fn(f64) -> f64) -> f64 {
+    let mut worst = 0.0f64;
+    for w in sol.nodes.windows(2) {
+        let (a, b) = (w[0], w[1]);
+        let d = b - a;
+        let len = d.hypot();
+        for k in 1..64 {
+            let x = a.x + (b.x - a.x) * k as f64 / 64.0;
+            let p = Point::new(x, y(x));
+            worst = worst.max(((p - a).cross(d) / len).abs());
+        }
+    }
+    worst
 }
 
 pub(super) fn solved(s: &Structure, form: Form, c: &[Condition]) -> Solution {
