@@ -7,6 +7,7 @@ mod bad;
 mod batch;
 mod behaviour;
 mod cases;
+mod continuous;
 mod hostile;
 mod outside;
 mod regressions;
