@@ -206,29 +206,6 @@ impl<'a> Cursor<'a> {
         })
     }
 
-    /// The next pair of the current object: `None` at the next object's
-    /// `0` pair (left for the next call of [`Cursor::next`]) or at the end.
-    #[inline(always)]
-    fn next_in_object(&mut self) -> Result<Option<Pair<'a>>, DxfError> {
-        let p = match self.peeked.take() {
-            Some(p) => p,
-            None => match self.pairs.next_pair()? {
-                Some(p) => p,
-                None => return Ok(None),
-            },
-        };
-        if p.code == 0 {
-            self.peeked = Some(p);
-            return Ok(None);
-        }
-        if (p.code == 5 || p.code == 105)
-            && let Some(h) = p.handle()
-        {
-            self.max_handle = self.max_handle.max(h);
-        }
-        Ok(Some(p))
-    }
-
     /// True when the next pair starts a new object (group code 0) or the file ends.
     fn at_object_end(&mut self) -> Result<bool, DxfError> {
         Ok(self.peek()?.is_none_or(|p| p.code == 0))
@@ -632,32 +609,51 @@ fn scan_object<'a>(cur: &mut Cursor<'a>, head: &Pair<'a>) -> Result<(ObjectScan<
     let mut in_xdata = false;
     let mut end = head.end;
     let mut extrusion_z = 1.0;
-    while let Some(p) = cur.next_in_object()? {
-        end = p.end;
-        if in_xdata || p.code >= 1000 {
+    // A pair the cursor already looked at comes first.
+    let mut pending_pair = cur.peeked.take();
+    if let Some(p) = pending_pair.take_if(|p| p.code == 0) {
+        cur.peeked = Some(p);
+        return Ok((o, end));
+    }
+    let binary = cur.pairs.format() != Format::Ascii;
+    let number = |raw: &[u8], code: i32| -> Option<f64> {
+        if binary { Pair::typed_f64(code, raw) } else { super::pairs::approx_f64(raw) }
+    };
+    let integer = |raw: &[u8], code: i32| -> Option<i64> {
+        if binary { Pair::typed_i64(code, raw) } else { std::str::from_utf8(raw).ok()?.trim().parse().ok() }
+    };
+    let mut max_handle = 0u64;
+    let mut visit = |code: i32, raw: &'a [u8], pair_end: usize| {
+        end = pair_end;
+        if in_xdata || code >= 1000 {
             in_xdata = true;
-            continue;
+            return;
         }
-        match p.code {
-            8 => o.layer = p.raw,
-            5 => o.handle = Some(p.raw),
-            2 => o.name = p.raw,
-            67 => o.paper = p.i64() == Some(1),
-            66 => o.attribs_follow = p.i64() == Some(1),
-            40 => o.radius = p.approx_f64().unwrap_or(0.0),
-            41 => o.scale.0 = p.approx_f64().unwrap_or(1.0),
-            42 => o.scale.1 = p.approx_f64().unwrap_or(1.0),
-            50 => o.rotation = p.approx_f64().unwrap_or(0.0),
-            230 => extrusion_z = p.approx_f64().unwrap_or(1.0),
-            10..=16 if p.code == 10 || points_extra => {
-                pending[(p.code - 10) as usize] = p.approx_f64().unwrap_or(f64::NAN);
+        match code {
+            8 => o.layer = raw,
+            5 => {
+                o.handle = Some(raw);
+                if let Some(h) = super::pairs::parse_handle(raw) {
+                    max_handle = max_handle.max(h);
+                }
+            }
+            2 => o.name = raw,
+            67 => o.paper = integer(raw, code) == Some(1),
+            66 => o.attribs_follow = integer(raw, code) == Some(1),
+            40 => o.radius = number(raw, code).unwrap_or(0.0),
+            41 => o.scale.0 = number(raw, code).unwrap_or(1.0),
+            42 => o.scale.1 = number(raw, code).unwrap_or(1.0),
+            50 => o.rotation = number(raw, code).unwrap_or(0.0),
+            230 => extrusion_z = number(raw, code).unwrap_or(1.0),
+            10..=16 if code == 10 || points_extra => {
+                pending[(code - 10) as usize] = number(raw, code).unwrap_or(f64::NAN);
             }
             20..=26 => {
-                let i = (p.code - 20) as usize;
+                let i = (code - 20) as usize;
                 let x = pending[i];
                 if !x.is_nan() {
                     pending[i] = f64::NAN;
-                    let y = p.approx_f64().unwrap_or(f64::NAN);
+                    let y = number(raw, code).unwrap_or(f64::NAN);
                     if is_hatch && !skipped_elevation {
                         // HATCH's first point is its elevation point (0, 0, z).
                         skipped_elevation = true;
@@ -672,7 +668,12 @@ fn scan_object<'a>(cur: &mut Cursor<'a>, head: &Pair<'a>) -> Result<(ObjectScan<
             }
             _ => {}
         }
+    };
+    if let Some(p) = pending_pair {
+        visit(p.code, p.raw, p.end);
     }
+    cur.pairs.each_in_object(&mut visit)?;
+    cur.max_handle = cur.max_handle.max(max_handle);
     o.mirrored = extrusion_z < 0.0 && in_ocs(o.kind);
     if matches!(o.kind, b"CIRCLE" | b"ARC")
         && let (Some(c), r) = (o.insert_at, o.radius.abs())
