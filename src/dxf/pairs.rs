@@ -45,9 +45,27 @@ pub enum Kind {
     Chunk,
 }
 
-/// The storage kind of a group code.
+/// The storage kind of a group code (a table lookup: this is asked for
+/// every pair of a binary file).
 #[must_use]
+#[inline]
 pub fn kind_of(code: i32) -> Kind {
+    usize::try_from(code).ok().and_then(|c| KINDS.get(c)).copied().unwrap_or(Kind::Text)
+}
+
+/// [`kind_by_range`] for every code from 0 to 1071.
+static KINDS: [Kind; 1072] = {
+    let mut table = [Kind::Text; 1072];
+    let mut c = 0;
+    while c < 1072 {
+        table[c] = kind_by_range(c as i32);
+        c += 1;
+    }
+    table
+};
+
+/// The storage kind of a group code, from the ranges of the DXF reference.
+const fn kind_by_range(code: i32) -> Kind {
     match code {
         10..=59 | 110..=149 | 210..=239 | 460..=469 | 1010..=1059 => Kind::Double,
         60..=79 | 170..=179 | 270..=289 | 370..=389 | 400..=409 | 1060..=1070 => Kind::Int16,
