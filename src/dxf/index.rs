@@ -2,6 +2,7 @@
 
 use std::collections::HashMap;
 use std::ops::Range;
+use std::sync::atomic::{AtomicUsize, Ordering};
 
 use kurbo::{Affine, Point, Rect, Vec2};
 
@@ -822,35 +823,65 @@ impl Scanner<'_> {
         };
         let ctx = EntityContext { options: self.options, blocks: &self.resolved, encoding: file.encoding };
         let bytes = file.bytes;
-        let split = if bytes.len() - body < self.options.parallel_from {
-            None
-        } else {
-            match file.format {
-                Format::Ascii => ascii_section_end(bytes, body)
-                    .and_then(|end| ascii_entity_boundary(bytes, body + (end - body) / 2, end)),
-                Format::Binary { wide_codes } => binary_entity_boundary(bytes, wide_codes, body),
-            }
-        };
-        let (part, end) = match split {
-            Some(mid) => {
+        let parallel = bytes.len() - body >= self.options.parallel_from;
+        let (part, end) = match file.format {
+            // ASCII: the middle entity boundary is found at once, by its lines.
+            Format::Ascii if parallel => match ascii_section_end(bytes, body)
+                .and_then(|end| ascii_entity_boundary(bytes, body + (end - body) / 2, end))
+            {
+                Some(mid) => {
+                    let (first, second) = std::thread::scope(|scope| {
+                        let second =
+                            scope.spawn(|| scan_entities(Pairs::at(bytes, file.format, mid), Stop::None, &ctx));
+                        let first = scan_entities(Pairs::at(bytes, file.format, body), Stop::At(mid), &ctx);
+                        (first, second.join())
+                    });
+                    let (second, end) = second.map_err(|_| structure(format!("byte {mid}"), "the scan failed"))??;
+                    let (mut first, _) = first?;
+                    first.append(second);
+                    (first, Some(end))
+                }
+                None => (scan_entities_cursor(cur, Stop::None, &ctx)?.0, None),
+            },
+            // Binary: the second thread skims the pairs to a boundary a
+            // little past the middle (skimming is quicker than scanning) and
+            // publishes it, then scans from there; the first scans from the
+            // start up to it, waiting for it only if it gets there first.
+            Format::Binary { wide_codes } if parallel => {
+                let target = body + (bytes.len() - body) * 57 / 100;
+                let boundary = AtomicUsize::new(UNKNOWN);
                 let (first, second) = std::thread::scope(|scope| {
-                    let second = scope.spawn(|| scan_entities(Pairs::at(bytes, file.format, mid), None, &ctx));
-                    let first = scan_entities(Pairs::at(bytes, file.format, body), Some(mid), &ctx);
+                    let second = scope.spawn(|| {
+                        let found = binary_entity_boundary(bytes, wide_codes, body, target);
+                        boundary.store(found.unwrap_or(NO_SPLIT), Ordering::Release);
+                        found.map(|mid| scan_entities(Pairs::at(bytes, file.format, mid), Stop::None, &ctx))
+                    });
+                    let stop = Stop::Published { from: target, boundary: &boundary };
+                    let first = scan_entities(Pairs::at(bytes, file.format, body), stop, &ctx);
                     (first, second.join())
                 });
-                let (mut first, _) = first?;
-                let (second, end) = second.map_err(|_| structure(format!("byte {mid}"), "the scan failed"))??;
-                first.append(second);
-                // Carry on after the ENDSEC pair the second half ended at.
+                let second = second.map_err(|_| structure(format!("byte {target}"), "the scan failed"))?;
+                let (mut first, first_end) = first?;
+                match second {
+                    Some(result) => {
+                        let (second, end) = result?;
+                        first.append(second);
+                        (first, Some(end))
+                    }
+                    None => (first, Some(first_end)),
+                }
+            }
+            _ => (scan_entities_cursor(cur, Stop::None, &ctx)?.0, None),
+        };
+        // After a split scan, carry on after the ENDSEC pair it ended at.
+        let end = match end {
+            Some(end) => {
                 cur.peeked = None;
                 cur.pairs = Pairs::at(bytes, file.format, end);
                 cur.next()?;
-                (first, end)
+                end
             }
-            None => {
-                let (part, end) = scan_entities_cursor(cur, None, &ctx)?;
-                (part, end)
-            }
+            None => part.end,
         };
         cur.max_handle = cur.max_handle.max(part.max_handle);
         file.entities.extend(part.entities);
@@ -874,6 +905,8 @@ struct EntityContext<'o> {
 /// What a part of the ENTITIES section gave.
 #[derive(Default)]
 struct EntitiesPart {
+    /// Where the part ended (its ENDSEC, or the split).
+    end: usize,
     entities: Vec<EntityRef>,
     extents: Bounds,
     max_handle: u64,
@@ -889,40 +922,69 @@ impl EntitiesPart {
     }
 }
 
+/// Where a part of the ENTITIES section ends.
+#[derive(Clone, Copy)]
+enum Stop<'s> {
+    /// At its ENDSEC.
+    None,
+    /// At this entity boundary.
+    At(usize),
+    /// At a boundary another thread publishes, no earlier than `from`.
+    Published { from: usize, boundary: &'s AtomicUsize },
+}
+
+/// Values of the published boundary before it is known, and when there is none.
+const UNKNOWN: usize = usize::MAX;
+const NO_SPLIT: usize = usize::MAX - 1;
+
 fn scan_entities<'a>(
     pairs: Pairs<'a>,
-    stop_at: Option<usize>,
+    stop: Stop<'_>,
     ctx: &EntityContext<'_>,
 ) -> Result<(EntitiesPart, usize), DxfError> {
     let mut cur = Cursor { pairs, peeked: None, max_handle: 0 };
-    let (mut part, end) = scan_entities_cursor(&mut cur, stop_at, ctx)?;
+    let (mut part, end) = scan_entities_cursor(&mut cur, stop, ctx)?;
     part.max_handle = part.max_handle.max(cur.max_handle);
     Ok((part, end))
 }
 
-/// Scans entities up to `0 ENDSEC` (whose offset is returned) or, with
-/// `stop_at`, up to that offset (an entity boundary, returned).
+/// Scans entities up to `0 ENDSEC` (whose offset is returned) or up to the
+/// entity boundary `stop` names (returned).
 fn scan_entities_cursor(
     cur: &mut Cursor<'_>,
-    stop_at: Option<usize>,
+    stop: Stop<'_>,
     ctx: &EntityContext<'_>,
 ) -> Result<(EntitiesPart, usize), DxfError> {
     let mut part = EntitiesPart::default();
+    let mut stop = stop;
     // The entity group in progress: (index in part.entities if kept, or
     // usize::MAX; whether sub-entities may follow).
     let mut open: Option<(usize, bool)> = None;
     let mut name_buf = [0u8; 64];
     loop {
-        if let Some(stop) = stop_at
-            && cur.peek()?.is_some_and(|p| p.start >= stop)
-        {
-            return Ok((part, stop));
+        let next = cur.peek()?.map(|p| p.start);
+        match (stop, next) {
+            (Stop::At(at), Some(start)) if start >= at => {
+                part.end = at;
+                return Ok((part, at));
+            }
+            (Stop::Published { from, boundary }, Some(start)) if start >= from => {
+                let mut at = boundary.load(Ordering::Acquire);
+                while at == UNKNOWN {
+                    std::thread::yield_now();
+                    at = boundary.load(Ordering::Acquire);
+                }
+                stop = if at == NO_SPLIT { Stop::None } else { Stop::At(at) };
+                continue;
+            }
+            _ => {}
         }
         let p = cur.expect("the rest of the ENTITIES section")?;
         if p.code != 0 {
             return Err(structure(format!("byte {}", p.start), "a value outside any entity"));
         }
         if p.is("ENDSEC") {
+            part.end = p.start;
             return Ok((part, p.start));
         }
         if p.is("EOF") {
@@ -1021,14 +1083,13 @@ fn ascii_section_end(bytes: &[u8], from: usize) -> Option<usize> {
 }
 
 /// Where to split a binary ENTITIES section starting at `body`: the first
-/// entity (not a sub-entity) past the middle of what follows, found by
+/// entity (not a sub-entity) at or past `target`, found by
 /// skimming the pairs — each code's value has a known size, or ends at a
 /// zero byte for strings — without reading any value. Binary values can
 /// hold any bytes, so unlike ASCII no pattern can be searched for. `None`
 /// when the section ends first (or the bytes are damaged: the full scan
 /// will say where).
-fn binary_entity_boundary(bytes: &[u8], wide: bool, body: usize) -> Option<usize> {
-    let target = body + (bytes.len() - body) / 2;
+fn binary_entity_boundary(bytes: &[u8], wide: bool, body: usize, target: usize) -> Option<usize> {
     let mut pos = body;
     loop {
         let start = pos;
@@ -1150,7 +1211,7 @@ mod tests {
         let mut bytes = crate::dxf::BINARY_SENTINEL.to_vec();
         bytes.extend(e.take());
         let body = crate::dxf::BINARY_SENTINEL.len() + 2 + 8 + 2 + 9;
-        let split = binary_entity_boundary(&bytes, true, body).unwrap();
+        let split = binary_entity_boundary(&bytes, true, body, body + (bytes.len() - body) / 2).unwrap();
         assert!(split > body + (bytes.len() - body) / 2 - 1);
         let mut p = Pairs::at(&bytes, Format::Binary { wide_codes: true }, split);
         let head = p.next_pair().unwrap().unwrap();
