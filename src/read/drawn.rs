@@ -188,6 +188,10 @@ pub fn drawn(file: &File<'_>, e: &EntityRef, tolerance: f64) -> Drawn {
         "ARC" => {
             let c = [g.f64(10).unwrap_or(0.0), g.f64(20).unwrap_or(0.0)];
             let r = g.f64(40).unwrap_or(0.0).abs();
+            if !r.is_finite() {
+                // No arc to flatten; the coordinate check refuses the point.
+                return Drawn::Path(vec![ocs_to_wcs(n, [c[0] + r, c[1], 0.0])]);
+            }
             // At most one turn, whatever the angles say.
             let a0 = g.f64(50).unwrap_or(0.0).rem_euclid(360.0).to_radians();
             let mut a1 = g.f64(51).unwrap_or(0.0).rem_euclid(360.0).to_radians();
@@ -250,6 +254,12 @@ fn flatten_bulges(verts: &[(Point, f64)], closed: bool, flip: f64, tolerance: f6
         let chord = b - a;
         let d = chord.hypot();
         let r = d / (2.0 * (theta / 2.0).sin());
+        if !r.is_finite() {
+            // A bulge too small for its chord (straight to within round-off),
+            // or a chord of infinite length: no arc to flatten.
+            out.push(b);
+            continue;
+        }
         // Centre: from the chord's midpoint along its left normal.
         let m = a.midpoint(b);
         let normal = Vec2::new(-chord.y, chord.x) / d;

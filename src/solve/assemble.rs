@@ -129,12 +129,15 @@ pub(crate) fn closing_point(pole: Point, a0: Point, an: Point, chord: Vec2) -> O
 /// the drawn segment (magnitude |tₖ|), so the check covers the drawing and
 /// not only the load line.
 fn equilibrium(poly: &Polygon<f64>, frame: &Frame, s: f64) -> f64 {
+    // Below this a segment has no drawn direction: two loads whose lines of
+    // action meet the polygon at one point give nodes apart by round-off.
+    let shortest = 1e-9 * frame.span;
     let force = |k: usize| {
         let (a, b) = (poly.nodes[k], poly.nodes[k + 1]);
         let d = Vec2::new(b[0] - a[0], b[1] - a[1]);
         let t = Vec2::new(poly.rays[k][0], poly.rays[k][1]);
-        // A zero-length segment has no drawn direction; fall back on the ray.
-        if d.hypot() > 0.0 { s * t.hypot() * d / d.hypot() } else { t }
+        // A (next to) zero-length segment: fall back on the ray.
+        if d.hypot() > shortest { s * t.hypot() * d / d.hypot() } else { t }
     };
     (0..frame.n()).map(|k| (force(k + 1) - force(k) + frame.forces[k]).hypot() / frame.force_scale).fold(0.0, f64::max)
 }
