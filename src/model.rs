@@ -408,6 +408,20 @@ impl Structure {
         }
         loads.sort_by(|a, b| a.anchor.x.total_cmp(&b.anchor.x));
         for pair in loads.windows(2) {
+            let (a, b) = (&pair[0], &pair[1]);
+            // Two loads on one line of action (inclined ones too) meet the
+            // profile at one point: they are one load.
+            let scale = a.force.hypot() * b.force.hypot();
+            let parallel = a.force.cross(b.force).abs() <= 1e-12 * scale;
+            let collinear = a.force.cross(b.anchor - a.anchor).abs()
+                <= 1e-12 * a.force.hypot() * (b.anchor - a.anchor).hypot().max(1e-300);
+            if !a.is_vertical() && parallel && (collinear || a.anchor == b.anchor) {
+                return Err(ModelError::SameLine {
+                    a: a.origin.to_string(),
+                    b: b.origin.to_string(),
+                    x: fmt_num(a.anchor.x),
+                });
+            }
             if pair[0].is_vertical() && pair[1].is_vertical() && pair[0].anchor.x == pair[1].anchor.x {
                 return Err(ModelError::SameLine {
                     a: pair[0].origin.to_string(),
