@@ -287,7 +287,9 @@ pub enum ModelError {
         right: String,
     },
     /// Two vertical loads on the same line of action.
-    #[error("the loads of {a} and {b} act on the same vertical x = {x}; combine them into one load with one label")]
+    #[error(
+        "the loads of {a} and {b} act on one line of action (through x = {x}); combine them into one load with one label"
+    )]
     SameLine {
         /// First load.
         a: String,
@@ -614,6 +616,34 @@ mod tests {
         )
         .unwrap_err();
         assert!(matches!(e, ModelError::NotFinite { .. }));
+    }
+
+    #[test]
+    fn two_loads_on_one_inclined_line_are_refused() {
+        let tilted = |x: f64, y: f64| Load { anchor: Point::new(x, y), force: Vec2::new(1.0, -3.0), origin: o(x, y) };
+        let e = Structure::new(
+            units(),
+            vec![pt(0.0, 0.0), pt(10.0, 0.0)],
+            vec![tilted(5.0, -3.0), tilted(6.0, -6.0)],
+            Vec::new(),
+            None,
+            "S",
+        )
+        .unwrap_err();
+        assert!(matches!(e, ModelError::SameLine { .. }), "{e}");
+        assert!(e.to_string().contains("one line of action"));
+        // Parallel but apart is fine.
+        assert!(
+            Structure::new(
+                units(),
+                vec![pt(0.0, 0.0), pt(10.0, 0.0)],
+                vec![tilted(5.0, -3.0), tilted(6.0, -3.0)],
+                Vec::new(),
+                None,
+                "S"
+            )
+            .is_ok()
+        );
     }
 
     #[test]
