@@ -44,6 +44,7 @@
 //! # Ok::<(), Box<dyn std::error::Error>>(())
 //! ```
 
+pub mod arch;
 pub mod carry;
 pub mod dxf;
 pub mod error;

@@ -1,0 +1,1 @@
+//! The intrados and extrados as polylines, left to right, and their checks.

@@ -1,0 +1,1 @@
+//! The arch cut into voussoirs, each with its loads: a [`super::Ring`].

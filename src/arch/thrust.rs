@@ -1,0 +1,1 @@
+//! Thrust lines through a [`super::Ring`]: given, least and greatest, least thickness, load factor.
