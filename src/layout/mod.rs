@@ -5,6 +5,7 @@
 //! diagram ([`diagram`]) placed beside the drawing. Sizes follow one text
 //! height proportioned to the span; the writer turns the result into DXF.
 
+pub mod assess;
 mod diagram;
 mod dimension;
 mod form;

@@ -26,11 +26,26 @@ pub enum Role {
     /// The loads drawn along the span: distributed loads to scale, point
     /// loads as arrows.
     LoadDiagram,
+    /// Assessment: the joints between voussoirs.
+    Voussoirs,
+    /// Assessment: the thrust line of least horizontal thrust.
+    ThrustMin,
+    /// Assessment: the thrust line of greatest horizontal thrust.
+    ThrustMax,
+    /// Assessment: the thrust line for the thrust the user gave.
+    ThrustTrial,
+    /// Assessment: the thrust line of the least thickness, with that
+    /// thinner arch's faces.
+    ThrustLimit,
+    /// Assessment: the thrust line at collapse under the factored live load.
+    ThrustCollapse,
+    /// Assessment: hinge markers and their labels.
+    Hinges,
 }
 
 impl Role {
     /// Every role, in drawing order.
-    pub const ALL: [Role; 8] = [
+    pub const ALL: [Role; 15] = [
         Role::Profile,
         Role::Hangers,
         Role::Diagram,
@@ -39,6 +54,13 @@ impl Role {
         Role::Bow,
         Role::Notes,
         Role::LoadDiagram,
+        Role::Voussoirs,
+        Role::ThrustMin,
+        Role::ThrustMax,
+        Role::ThrustTrial,
+        Role::ThrustLimit,
+        Role::ThrustCollapse,
+        Role::Hinges,
     ];
 
     /// The key used on the command line (`--layer profile=NAME`) and in reports.
@@ -53,6 +75,13 @@ impl Role {
             Role::Bow => "bow",
             Role::Notes => "notes",
             Role::LoadDiagram => "load-diagram",
+            Role::Voussoirs => "voussoirs",
+            Role::ThrustMin => "thrust-min",
+            Role::ThrustMax => "thrust-max",
+            Role::ThrustTrial => "thrust-trial",
+            Role::ThrustLimit => "thrust-limit",
+            Role::ThrustCollapse => "thrust-collapse",
+            Role::Hinges => "hinges",
         }
     }
 
@@ -68,6 +97,13 @@ impl Role {
             Role::Bow => "HANGLINE-BOW",
             Role::Notes => "HANGLINE-NOTES",
             Role::LoadDiagram => "HANGLINE-LOAD-DIAGRAM",
+            Role::Voussoirs => "HANGLINE-VOUSSOIRS",
+            Role::ThrustMin => "HANGLINE-THRUST-MIN",
+            Role::ThrustMax => "HANGLINE-THRUST-MAX",
+            Role::ThrustTrial => "HANGLINE-THRUST-TRIAL",
+            Role::ThrustLimit => "HANGLINE-THRUST-LIMIT",
+            Role::ThrustCollapse => "HANGLINE-THRUST-COLLAPSE",
+            Role::Hinges => "HANGLINE-HINGES",
         }
     }
 
@@ -84,6 +120,13 @@ impl Role {
             Role::Bow => 30,
             Role::Notes => 7,
             Role::LoadDiagram => 12,
+            Role::Voussoirs => 8,
+            Role::ThrustMin => 1,
+            Role::ThrustMax => 150,
+            Role::ThrustTrial => 6,
+            Role::ThrustLimit => 40,
+            Role::ThrustCollapse => 210,
+            Role::Hinges => 7,
         }
     }
 }

@@ -15,6 +15,7 @@
 //! are passed over and counted in a warning. [`mtext`] strips formatting
 //! codes; [`drawn`] turns an entity's pairs into world geometry.
 
+pub mod arch;
 pub mod assign;
 mod drawn;
 pub mod label;
@@ -248,22 +249,7 @@ pub fn read(file: &File<'_>, options: &ReadOptions) -> Result<Reading, ReadError
         ));
     }
 
-    // Units.
-    let (length, length_source) = match options.length_unit {
-        Some(u) => (u, "given with --units".to_string()),
-        None => match file.header_i64("$INSUNITS") {
-            Some(code) if code != 0 => {
-                let u = LengthUnit::from_insunits(code).ok_or(ReadError::Units { code })?;
-                (u, format!("from $INSUNITS = {code}"))
-            }
-            found => {
-                let why = if found.is_some() { "$INSUNITS is 0 (unitless)" } else { "the drawing has no $INSUNITS" };
-                warnings.push(format!("{why}; lengths read as metres: give --units if they are not"));
-                (LengthUnit::Metre, format!("assumed ({why})"))
-            }
-        },
-    };
-
+    let (length, length_source) = length_unit(file, options, &mut warnings)?;
     let extents = file.extents.rect();
     let tolerance = extents.map_or(1e-3, |r| (r.width().hypot(r.height()) * 1e-5).max(1e-9));
 
@@ -293,11 +279,116 @@ pub fn read(file: &File<'_>, options: &ReadOptions) -> Result<Reading, ReadError
     }
     ignored.warn(&layers.supports, &mut warnings);
 
+    let LoadsRead { loads, mut reads, distributed, mut stretches, force_unit, force_source } =
+        read_loads(file, &layers.loads, options, length, tolerance, &mut warnings)?;
+
+    // Hanger or post positions: vertical lines on the hangers layer.
+    let mut hangers = Vec::new();
+    let mut ignored = Ignored::default();
+    for e in on(&layers.hangers) {
+        let d = drawn(file, e, tolerance);
+        let o = drawn::origin(e, drawn::position(&d));
+        check_finite(&d, &o)?;
+        match d {
+            Drawn::Line(l) if is_vertical(l) => hangers.push(((l.p0.x + l.p1.x) / 2.0, o)),
+            other => ignored.add(&other),
+        }
+    }
+    ignored.warn(&layers.hangers, &mut warnings);
+    hangers.sort_by(|a, b| a.0.total_cmp(&b.0));
+    hangers.dedup_by(|a, b| a.0 == b.0);
+
+    // Deck.
+    let mut deck = Deck::default();
+    let mut ignored = Ignored::default();
+    for e in on(&layers.deck) {
+        let d = drawn(file, e, tolerance);
+        let o = drawn::origin(e, drawn::position(&d));
+        check_finite(&d, &o)?;
+        match d {
+            Drawn::Line(l) => deck.segments.push(l),
+            Drawn::Path(p) => deck.segments.extend(p.windows(2).map(|w| Line::new(w[0], w[1]))),
+            other => ignored.add(&other),
+        }
+    }
+    ignored.warn(&layers.deck, &mut warnings);
+    let deck = (!deck.segments.is_empty()).then_some(deck);
+
+    let units = Units { length, force: force_unit };
+    let structure = Structure::new(units, supports, loads, distributed, deck, &layers.supports)?;
+    reads.sort_by(|a, b| a.anchor.x.total_cmp(&b.anchor.x));
+    stretches.sort_by(|a, b| a.x0.total_cmp(&b.x0));
+    Ok(Reading {
+        structure,
+        loads: reads,
+        distributed: stretches,
+        hangers,
+        extents,
+        release: file.release,
+        binary: file.format != Format::Ascii,
+        length_source,
+        force_source,
+        layers: table_layers,
+        warnings,
+    })
+}
+
+/// The drawing's length unit and how it was decided: `--units`, else
+/// `$INSUNITS`, else metres with a warning.
+pub(crate) fn length_unit(
+    file: &File<'_>,
+    options: &ReadOptions,
+    warnings: &mut Vec<String>,
+) -> Result<(LengthUnit, String), ReadError> {
+    Ok(match options.length_unit {
+        Some(u) => (u, "given with --units".to_string()),
+        None => match file.header_i64("$INSUNITS") {
+            Some(code) if code != 0 => {
+                let u = LengthUnit::from_insunits(code).ok_or(ReadError::Units { code })?;
+                (u, format!("from $INSUNITS = {code}"))
+            }
+            found => {
+                let why = if found.is_some() { "$INSUNITS is 0 (unitless)" } else { "the drawing has no $INSUNITS" };
+                warnings.push(format!("{why}; lengths read as metres: give --units if they are not"));
+                (LengthUnit::Metre, format!("assumed ({why})"))
+            }
+        },
+    })
+}
+
+/// The loads read from the loads layer, in the model's units.
+pub(crate) struct LoadsRead {
+    /// Point loads.
+    pub loads: Vec<Load>,
+    /// Point loads as read.
+    pub reads: Vec<LoadRead>,
+    /// Distributed loads.
+    pub distributed: Vec<DistributedLoad>,
+    /// Distributed loads as read.
+    pub stretches: Vec<StretchRead>,
+    /// The force unit of the model.
+    pub force_unit: ForceUnit,
+    /// How it was decided.
+    pub force_source: String,
+}
+
+/// Reads point and distributed loads and their labels from `layer`.
+pub(crate) fn read_loads(
+    file: &File<'_>,
+    layer: &str,
+    options: &ReadOptions,
+    length: LengthUnit,
+    tolerance: f64,
+    warnings: &mut Vec<String>,
+) -> Result<LoadsRead, ReadError> {
+    let on = |name: &str| -> Vec<&crate::dxf::EntityRef> {
+        file.entities.iter().filter(|e| names_match(&e.layer, name)).collect()
+    };
     // Loads: lines and blocks, and the texts that label them.
     let mut items: Vec<LoadItem> = Vec::new();
     let mut texts: Vec<(LabelText, Origin)> = Vec::new();
     let mut ignored = Ignored::default();
-    for e in on(&layers.loads) {
+    for e in on(layer) {
         let d = drawn(file, e, tolerance);
         let o = drawn::origin(e, drawn::position(&d));
         check_finite(&d, &o)?;
@@ -328,7 +419,7 @@ pub fn read(file: &File<'_>, options: &ReadOptions) -> Result<Reading, ReadError
                     }),
                     None => warnings.push(format!(
                         "{o}: a polyline on {} that is not horizontal was ignored (a distributed load is drawn as a horizontal line)",
-                        layers.loads
+                        layer
                     )),
                 }
             }
@@ -354,7 +445,7 @@ pub fn read(file: &File<'_>, options: &ReadOptions) -> Result<Reading, ReadError
             other => ignored.add(&other),
         }
     }
-    ignored.warn(&layers.loads, &mut warnings);
+    ignored.warn(layer, warnings);
 
     // Magnitudes: attributes first, then --load-scale (point loads) or the labels.
     let mut values: Vec<Option<(LabelValue, Option<usize>)>> =
@@ -376,7 +467,7 @@ pub fn read(file: &File<'_>, options: &ReadOptions) -> Result<Reading, ReadError
         let geoms: Vec<LoadGeom> = need.iter().map(|&i| LoadGeom { id: i, shape: items[i].shape }).collect();
         let labels: Vec<LabelText> = texts.iter().map(|(t, _)| t.clone()).collect();
         let assignment = assign::assign(&geoms, &labels, AssignTolerances::default())
-            .map_err(|e| ReadError::Label(label_message(&e, &items, &texts, &layers.loads)))?;
+            .map_err(|e| ReadError::Label(label_message(&e, &items, &texts, layer)))?;
         for m in &assignment.matches {
             values[m.line] = Some((m.value, Some(m.label)));
         }
@@ -386,7 +477,7 @@ pub fn read(file: &File<'_>, options: &ReadOptions) -> Result<Reading, ReadError
         warnings.push(format!(
             "{} text(s) on {} not used: --load-scale reads point loads from their lines' lengths",
             leftover_texts.len(),
-            layers.loads
+            layer
         ));
     } else {
         for &t in &leftover_texts {
@@ -496,55 +587,7 @@ pub fn read(file: &File<'_>, options: &ReadOptions) -> Result<Reading, ReadError
         }
     }
 
-    // Hanger or post positions: vertical lines on the hangers layer.
-    let mut hangers = Vec::new();
-    let mut ignored = Ignored::default();
-    for e in on(&layers.hangers) {
-        let d = drawn(file, e, tolerance);
-        let o = drawn::origin(e, drawn::position(&d));
-        check_finite(&d, &o)?;
-        match d {
-            Drawn::Line(l) if is_vertical(l) => hangers.push(((l.p0.x + l.p1.x) / 2.0, o)),
-            other => ignored.add(&other),
-        }
-    }
-    ignored.warn(&layers.hangers, &mut warnings);
-    hangers.sort_by(|a, b| a.0.total_cmp(&b.0));
-    hangers.dedup_by(|a, b| a.0 == b.0);
-
-    // Deck.
-    let mut deck = Deck::default();
-    let mut ignored = Ignored::default();
-    for e in on(&layers.deck) {
-        let d = drawn(file, e, tolerance);
-        let o = drawn::origin(e, drawn::position(&d));
-        check_finite(&d, &o)?;
-        match d {
-            Drawn::Line(l) => deck.segments.push(l),
-            Drawn::Path(p) => deck.segments.extend(p.windows(2).map(|w| Line::new(w[0], w[1]))),
-            other => ignored.add(&other),
-        }
-    }
-    ignored.warn(&layers.deck, &mut warnings);
-    let deck = (!deck.segments.is_empty()).then_some(deck);
-
-    let units = Units { length, force: force_unit };
-    let structure = Structure::new(units, supports, loads, distributed, deck, &layers.supports)?;
-    reads.sort_by(|a, b| a.anchor.x.total_cmp(&b.anchor.x));
-    stretches.sort_by(|a, b| a.x0.total_cmp(&b.x0));
-    Ok(Reading {
-        structure,
-        loads: reads,
-        distributed: stretches,
-        hangers,
-        extents,
-        release: file.release,
-        binary: file.format != Format::Ascii,
-        length_source,
-        force_source,
-        layers: table_layers,
-        warnings,
-    })
+    Ok(LoadsRead { loads, reads, distributed, stretches, force_unit, force_source })
 }
 
 /// The text of a label: of a multi-line MTEXT, the one line that reads as
@@ -663,7 +706,7 @@ fn label_message(e: &AssignError, items: &[LoadItem], texts: &[(LabelText, Origi
     }
 }
 
-fn check_finite(d: &Drawn, o: &Origin) -> Result<(), ReadError> {
+pub(crate) fn check_finite(d: &Drawn, o: &Origin) -> Result<(), ReadError> {
     for p in drawn::coordinates(d) {
         for v in [p.x, p.y] {
             if !v.is_finite() || v.abs() >= LIMIT {
@@ -687,7 +730,7 @@ fn clean(v: f64) -> f64 {
 
 /// Entity types passed over on a layer, counted for one warning.
 #[derive(Default)]
-struct Ignored(Vec<(String, usize)>);
+pub(crate) struct Ignored(Vec<(String, usize)>);
 
 impl Ignored {
     fn add(&mut self, d: &Drawn) {
