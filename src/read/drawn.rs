@@ -505,3 +505,94 @@ mod tests {
         assert!(a < 2e-3, "fit-point spline: ezdxf's curve up to {a} from ours");
     }
 }
+
+/// The arch fixtures read by [`drawn`] and cut by [`crate::arch::slice`]:
+/// the two stages together against closed forms.
+#[cfg(test)]
+mod arch_fixtures {
+    use super::*;
+    use crate::arch::LoadKind;
+    use crate::arch::outline::Outline;
+    use crate::arch::slice::{Cuts, Division, SliceOptions, slice};
+    use crate::dxf::ScanOptions;
+    use std::f64::consts::PI;
+
+    /// The paths on each of INTRADOS, EXTRADOS and FILL, in drawing order.
+    fn faces(name: &str, tolerance: f64) -> [Vec<Vec<Point>>; 3] {
+        let path = std::path::Path::new(env!("CARGO_MANIFEST_DIR")).join("fixtures/arch").join(name);
+        let bytes = std::fs::read(path).unwrap();
+        let layers = ["INTRADOS", "EXTRADOS", "FILL"];
+        let options = ScanOptions { keep_layers: layers.map(String::from).to_vec(), ..ScanOptions::default() };
+        let file = File::scan(&bytes, &options).unwrap();
+        layers.map(|layer| {
+            file.entities
+                .iter()
+                .filter(|e| e.layer == layer)
+                .filter_map(|e| match drawn(&file, e, tolerance) {
+                    Drawn::Path(p) => Some(p),
+                    _ => None,
+                })
+                .collect()
+        })
+    }
+
+    /// The semicircular ring (ARCs): half an annulus, π(R_e² − R_i²)/2, and
+    /// fill to the road, 11.2 × 5.2 − πR_e²/2 (elementary geometry), each to
+    /// within what flattening to `tol` can cut off (chord error × length).
+    #[test]
+    fn semicircle_from_arcs() {
+        let tol = 1e-4;
+        let [i, e, fill] = faces("semicircle-m-r2018.dxf", tol);
+        let o = Outline::new(i[0].clone(), e[0].clone()).unwrap();
+        let (ri, re) = (4.0, 4.6);
+        let ring = PI * (re * re - ri * ri) / 2.0;
+        let slack = tol * PI * (ri + re);
+        assert!((o.area() - ring).abs() <= slack, "ring {} vs {ring}", o.area());
+        let options = SliceOptions {
+            cuts: Cuts::Radial,
+            division: Division::Count(9),
+            weight_per_area: 1.0,
+            fill_weight_per_area: 1.0,
+        };
+        let s = slice(&o, &fill, &[], &[], &options).unwrap();
+        assert_eq!(s.warnings.len(), 1);
+        assert!(s.warnings[0].contains("area 10.4 "), "{}", s.warnings[0]);
+        let total = |kind| total_of(&s, kind);
+        let expect = 11.2 * 5.2 - PI * re * re / 2.0;
+        // Fill beyond the extrados' x-range (|x| > 4.6, 2 × 1 × 5.2) is not counted.
+        let expect_counted = expect - 2.0 * 5.2;
+        assert!((total(LoadKind::OwnWeight) - o.area()).abs() < 1e-9);
+        assert!((total(LoadKind::Fill) - expect_counted).abs() <= 2.0 * slack, "fill {}", total(LoadKind::Fill));
+        let s = slice(&o, &fill, &[], &[], &SliceOptions { cuts: Cuts::Vertical, ..options }).unwrap();
+        assert!((total_of(&s, LoadKind::Fill) - expect_counted).abs() <= 2.0 * slack);
+    }
+
+    fn total_of(s: &crate::arch::slice::Sliced, kind: LoadKind) -> f64 {
+        s.ring.blocks.iter().flatten().filter(|l| l.kind == kind).map(|l| -l.force.y).sum()
+    }
+
+    /// The segmental ring (bulges): an annular sector of angle 2·asin(4/5)
+    /// about (0, −3), (θ/2)(R_e² − R_i²) (elementary geometry); its
+    /// springing lines and every joint point at the centre, to within the
+    /// flattening (the faces' polylines have chords of their own, so their
+    /// arc-length fractions pair up to about the chord error).
+    #[test]
+    fn segmental_from_bulges() {
+        let tol = 1e-4;
+        let [i, e, _] = faces("segmental-m-r2013.dxf", tol);
+        let o = Outline::new(i[0].clone(), e[0].clone()).unwrap();
+        let theta = 2.0 * (0.8f64).asin();
+        let (ri, re) = (5.0, 5.6);
+        let expect = theta / 2.0 * (re * re - ri * ri);
+        assert!((o.area() - expect).abs() <= tol * theta * (ri + re), "{} vs {expect}", o.area());
+        assert!((o.span() - 8.0).abs() < 1e-9 && (o.rise() - 2.0).abs() < 1e-9);
+        assert!((o.crown_thickness() - 0.6).abs() < 1e-9);
+        let centre = Point::new(0.0, -3.0);
+        for k in 0..=16 {
+            let j = o.joint_at(k as f64 / 16.0);
+            let (a, b) = (j.intrados - centre, j.extrados - centre);
+            let off = a.cross(b).abs() / b.hypot();
+            assert!(off <= 2.0 * tol, "joint {k} is {off} off the radius: {j:?}");
+        }
+    }
+}
