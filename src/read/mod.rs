@@ -20,6 +20,7 @@ pub mod assign;
 mod drawn;
 pub mod label;
 pub mod mtext;
+mod spline;
 
 use kurbo::{Line, Point, Rect, Vec2};
 use thiserror::Error;
@@ -302,6 +303,7 @@ pub fn read(file: &File<'_>, options: &ReadOptions) -> Result<Reading, ReadError
     let mut deck = Deck::default();
     let mut ignored = Ignored::default();
     for e in on(&layers.deck) {
+        warnings.extend(drawn::approximate(file, e));
         let d = drawn(file, e, tolerance);
         let o = drawn::origin(e, drawn::position(&d));
         check_finite(&d, &o)?;
