@@ -689,4 +689,74 @@ mod tests {
         assert!(s.warnings[0].contains("area 28"), "{}", s.warnings[0]);
         assert!(s.fill.iter().all(|f| !f.is_empty()));
     }
+
+    mod never_panics {
+        use super::*;
+        use proptest::prelude::*;
+
+        fn pts(range: f64) -> impl Strategy<Value = Vec<Point>> {
+            prop::collection::vec((-range..range, -range..range).prop_map(|(x, y)| Point::new(x, y)), 0..7)
+        }
+
+        /// An arch-like face: `n` points on a rough half sine, jittered.
+        fn face(n: usize, rise: f64, jitter: &[(f64, f64)]) -> Vec<Point> {
+            (0..n)
+                .map(|k| {
+                    let t = k as f64 / (n - 1) as f64;
+                    let (jx, jy) = jitter[k % jitter.len()];
+                    Point::new(
+                        -5.0 * (1.0 + rise * 0.1) + 10.0 * (1.0 + rise * 0.1) * t + jx,
+                        rise * (PI * t).sin() + jy,
+                    )
+                })
+                .collect()
+        }
+
+        proptest! {
+            #![proptest_config(ProptestConfig::with_cases(256))]
+
+            /// Arch-like outlines, mostly valid: sliced every way with fill
+            /// and loads, never a panic, and the voussoirs' areas sum to the
+            /// outline's (property test; our own invariants).
+            #[test]
+            fn arch_like(
+                n in 2usize..30, rise in 0.5..6.0f64, t in 0.05..2.0f64,
+                jitter in prop::collection::vec((-0.3..0.3f64, -0.3..0.3f64), 1..5),
+                count in 1usize..40, vertical in any::<bool>(), lx in -5.0..5.0f64, dx in -0.15..0.15f64,
+            ) {
+                let i = face(n, rise, &jitter);
+                let e = face(n + 3, rise + t, &[(0.0, 0.0)]);
+                if let Ok(o) = Outline::new(i, e) {
+                    let cuts = if vertical { Cuts::Vertical } else { Cuts::Radial };
+                    let load = Load { anchor: Point::new(lx, 20.0), force: Vec2::new(dx, -1.0), origin: origin(Point::ORIGIN) };
+                    let fill = vec![Point::new(-8.0, 0.0), Point::new(8.0, 0.0), Point::new(8.0, rise + t + 1.0), Point::new(-8.0, rise + t + 1.0)];
+                    match slice(&o, &[fill], &[load], &[], &options(cuts, Division::Count(count))) {
+                        Ok(s) => {
+                            let sum: f64 = s.voussoirs.iter().map(|v| polygon(v).unsigned_area()).sum();
+                            prop_assert!((sum - o.area()).abs() <= 1e-9 * o.area(), "{sum} vs {}", o.area());
+                        }
+                        Err(err) => prop_assert!(!matches!(err, SliceError::BadNumber { .. } | SliceError::Count { .. }), "{err}"),
+                    }
+                }
+            }
+
+            /// Any finite input gives an outline or an error, and any outline
+            /// slices or errs, never panics (property test; our own rule).
+            #[test]
+            fn outline_and_slice(
+                i in pts(10.0), e in pts(10.0), fill in pts(12.0), scale in prop_oneof![Just(1.0), Just(1e-9), Just(1e150)],
+                n in 0usize..20, vertical in any::<bool>(), lx in -12.0..12.0f64, dx in -1.0..1.0f64,
+            ) {
+                let sc = |v: Vec<Point>| v.into_iter().map(|p| (p.to_vec2() * scale).to_point()).collect::<Vec<_>>();
+                if let Ok(o) = Outline::new(sc(i), sc(e)) {
+                    let _ = o.scaled(0.5).area();
+                    let _ = (o.span(), o.rise(), o.crown_thickness(), o.springing_thickness(), o.centre_line_length());
+                    let cuts = if vertical { Cuts::Vertical } else { Cuts::Radial };
+                    let load = Load { anchor: Point::new(lx * scale, 20.0 * scale), force: Vec2::new(dx, -1.0), origin: origin(Point::ORIGIN) };
+                    let d = DistributedLoad { x0: -5.0 * scale, x1: 5.0 * scale, w0: 1.0, w1: 2.0, origin: origin(Point::ORIGIN) };
+                    let _ = slice(&o, &[sc(fill)], &[load], &[d], &options(cuts, Division::Count(n)));
+                }
+            }
+        }
+    }
 }
