@@ -26,6 +26,15 @@ pub enum Error {
     /// No funicular meets the conditions.
     #[error(transparent)]
     Solve(#[from] SolveError),
+    /// The arch's faces do not make an arch.
+    #[error(transparent)]
+    Outline(#[from] crate::arch::outline::OutlineError),
+    /// The arch cannot be cut into voussoirs as asked.
+    #[error(transparent)]
+    Slice(#[from] crate::arch::slice::SliceError),
+    /// A thrust-line computation failed.
+    #[error(transparent)]
+    Thrust(#[from] crate::arch::thrust::ThrustError),
     /// The output could not be written.
     #[error(transparent)]
     Write(#[from] WriteError),

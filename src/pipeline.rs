@@ -2,6 +2,8 @@
 //! lay out, write. No file system here; the binary owns paths, temporary
 //! files and renames.
 
+pub mod assess;
+
 use std::io::Write;
 
 use kurbo::Point;

@@ -17,6 +17,8 @@
 //! `rise`), `towers`, `clearance`, `loads` as read, `force_diagram`,
 //! `checks`, `warnings` and the `caution`.
 
+pub mod assess;
+
 use serde::Serialize;
 
 use crate::carry::{Carried, Share};

@@ -108,6 +108,14 @@ fn text(at: Point, height: f64, content: String, h: HAlign, v: VAlign) -> Shape 
     Shape::Text(Text { at, height, rotation: 0.0, content, h, v })
 }
 
+fn pole_label_text(kind: LineKind, horizontal: f64, units: Units) -> String {
+    format!("pole {} ({}, H = {})", kind.prefix(), kind.words(), fmt_force(horizontal, units.force))
+}
+
+fn pole_label(s: &Shown<'_>, units: Units) -> String {
+    pole_label_text(s.kind, s.line.horizontal, units)
+}
+
 /// The total of each block's loads.
 fn block_totals(ring: &Ring) -> Vec<Vec2> {
     ring.blocks.iter().map(|b| b.iter().fold(Vec2::ZERO, |s, l| s + l.force)).collect()
@@ -140,7 +148,11 @@ pub fn assess_layout(view: &AssessView<'_>, extents: Option<Rect>, options: &Lay
     let r = 0.3 * th;
     for shown in &view.lines {
         let role = shown.kind.role();
-        items.push(item(role, Shape::Polyline { points: shown.line.polygon.clone(), closed: false }));
+        // The line of thrust as engineers draw it: through the centre of
+        // pressure on every joint (the funicular polygon's corners, on the
+        // voussoirs' load lines, can lie outside the arch near a springing).
+        let points: Vec<Point> = shown.line.crossings.iter().flatten().map(|c| c.at).collect();
+        items.push(item(role, Shape::Polyline { points, closed: false }));
         if let Some(js) = shown.joints {
             for face in [Face::Intrados, Face::Extrados] {
                 let points = js
@@ -220,7 +232,10 @@ pub fn assess_layout(view: &AssessView<'_>, extents: Option<Rect>, options: &Lay
     let at = options.diagram_at.unwrap_or_else(|| {
         let gap = (0.1 * span).max(6.0 * th);
         let right = taken.map_or(drawing_right, |t| t.x1);
-        let left_edge = right + gap + 4.0 * th;
+        // Room for the pole labels, left of the poles (glyphs about 0.6 of
+        // the text height wide: common practice, no source).
+        let label = view.lines.iter().map(|s| pole_label(s, units).chars().count()).max().unwrap_or(0) as f64;
+        let left_edge = right + gap + 3.0 * th + label * 0.6 * 0.8 * th;
         Point::new(left_edge + (0.0 - fbox.x0) / scale, top - (fbox.y1 - 0.0) / scale)
     });
     let map = |f: Point| at + (f - Point::ZERO) / scale;
@@ -249,12 +264,26 @@ pub fn assess_layout(view: &AssessView<'_>, extents: Option<Rect>, options: &Lay
             }
         }
         items.push(Item { role: Role::Diagram, shape: Shape::Circle { center: pole, radius: 0.25 * th }, colour });
+    }
+    // Pole labels in a column left of the leftmost pole, each at its pole's
+    // height unless that would overlap the one above; a leader joins them.
+    let column = poles.iter().map(|(_, p, _)| map(*p).x).fold(f64::INFINITY, f64::min) - 2.0 * th;
+    let mut order: Vec<(LineKind, Point)> = poles.iter().map(|(k, p, _)| (*k, map(*p))).collect();
+    order.sort_by(|a, b| b.1.y.total_cmp(&a.1.y));
+    let mut last_y = f64::INFINITY;
+    for (kind, pole) in order {
+        let colour = Some(kind.role().colour());
+        let y = pole.y.min(last_y - 1.4 * th);
+        last_y = y;
+        let at = Point::new(column, y);
+        items.push(Item { role: Role::Diagram, shape: Shape::Line(Line::new(at, pole)), colour });
+        let h = view.lines.iter().find(|s| s.kind == kind).map_or(0.0, |s| s.line.horizontal);
         items.push(Item {
             role: Role::Diagram,
             shape: text(
-                pole - Vec2::new(0.8 * th, 0.0),
+                at - Vec2::new(0.4 * th, 0.0),
                 0.8 * th,
-                format!("pole {} ({})", kind.prefix(), kind.words()),
+                pole_label_text(kind, h, units),
                 HAlign::Right,
                 VAlign::Middle,
             ),
@@ -286,14 +315,16 @@ pub fn assess_layout(view: &AssessView<'_>, extents: Option<Rect>, options: &Lay
         Role::Diagram,
         text(Point::new(x0 + bar, yb - th), 0.8 * th, fmt_force(bar_force, units.force), HAlign::Center, VAlign::Top),
     ));
+    let clear = (right.intrados - left.intrados).hypot();
     let mut notes = vec![format!(
-        "hangline: arch assessment by thrust lines, {} voussoirs, span {} {}",
+        "hangline: arch assessment by thrust lines, {} voussoirs, span {} {} between the springings of the intrados",
         view.ring.blocks.len(),
-        fmt_length(span, units.length),
+        fmt_length(clear, units.length),
         units.length
     )];
     notes.extend(view.notes.iter().cloned());
-    notes.push(ASSESS_CAUTION.to_string());
+    // The caution in sentences, one a line, so that it stays beside the polygon.
+    notes.extend(ASSESS_CAUTION.split_inclusive(". ").map(|s| s.trim().to_string()));
     for (i, line) in notes.into_iter().enumerate() {
         let y = yb - 3.5 * th - i as f64 * 1.6 * th;
         items.push(item(Role::Notes, text(Point::new(x0, y), 0.8 * th, line, HAlign::Left, VAlign::Top)));
@@ -356,6 +387,15 @@ mod tests {
         // The ray to the middle load-line point is the force across joint 1, horizontal.
         let mid = placement.diagram_at + Vec2::new(0.0, -5.0) / placement.force_scale;
         assert!((mid - pole).y.abs() < 1e-9);
-        assert!(adds.items.iter().any(|i| matches!(&i.shape, Shape::Text(t) if t.content == ASSESS_CAUTION)));
+        let texts: Vec<&str> = adds
+            .items
+            .iter()
+            .filter_map(|i| match &i.shape {
+                Shape::Text(t) if i.role == Role::Notes => Some(t.content.as_str()),
+                _ => None,
+            })
+            .collect();
+        assert!(texts.join(" ").contains(ASSESS_CAUTION), "{texts:?}");
+        assert!(adds.items.iter().any(|i| matches!(&i.shape, Shape::Text(t) if t.content.contains("H = 10"))));
     }
 }

@@ -13,6 +13,10 @@ invented places and numbers:
 - coldbeck-arch.dxf: a 24 m concrete arch at Coldbeck carrying its own weight
   and the fill over its haunches, drawn as a distributed load: solved with
   --arch --self-weight.
+- wrenfield-bridge.dxf: an existing stone bridge at Wrenfield over the
+  Linnet Beck: a segmental arch of 9 m span and 2.4 m rise, its ring 0.55 m
+  deep, with earth fill over it up to the road and the surfacing drawn as a
+  distributed load: assessed with `hangline assess`.
 
     python tools/demo/make_demo.py            # writes the demo drawings
 """
@@ -87,6 +91,7 @@ def main() -> int:
     doc.saveas(OUT)
     harrowgate()
     coldbeck()
+    wrenfield()
     return 0
 
 
@@ -140,6 +145,49 @@ def coldbeck() -> None:
     msp.add_text("COLDBECK ARCH - OWN WEIGHT AND FILL (invented example)", height=0.5,
                  dxfattribs={"layer": "TITLE"}).set_placement((-3.0, 13.0))
     doc.saveas(os.path.join(DEMO, "coldbeck-arch.dxf"))
+
+
+def wrenfield() -> None:
+    import math
+
+    doc = ezdxf.new("R2013", setup=True)
+    doc.header["$INSUNITS"] = 6  # metres
+    for name, colour in [("INTRADOS", 1), ("EXTRADOS", 5), ("FILL", 52), ("LOADS", 3), ("STRUCTURE", 8),
+                         ("GROUND", 52), ("TITLE", 7)]:
+        doc.layers.add(name, color=colour)
+    msp = doc.modelspace()
+    # Segmental arch: springings at x = -4.5 and 4.5 on y = 0, rise 2.4 m;
+    # the ring 0.55 m deep, its faces concentric.
+    half, rise, ring = 4.5, 2.4, 0.55
+    r = (half * half + rise * rise) / (2.0 * rise)
+    centre = (0.0, rise - r)
+    start = math.degrees(math.atan2(-centre[1], half))
+    msp.add_arc(centre, r, start, 180.0 - start, dxfattribs={"layer": "INTRADOS"})
+    msp.add_arc(centre, r + ring, start, 180.0 - start, dxfattribs={"layer": "EXTRADOS"})
+    # Springing points of the extrados, on the radial springing joints.
+    a = math.radians(start)
+    ex, ey = centre[0] + (r + ring) * math.cos(a), centre[1] + (r + ring) * math.sin(a)
+    road = rise + ring + 0.45
+    # Fill between the extrados and the road, over the arch.
+    theta = math.pi - 2.0 * a
+    bulge = math.tan(theta / 4.0)
+    msp.add_lwpolyline([(ex, ey, 0, 0, 0), (ex, road), (-ex, road), (-ex, ey, 0, 0, bulge)],
+                       format="xyseb", close=True, dxfattribs={"layer": "FILL"})
+    # Road surfacing and parapets, as a load per length over the arch.
+    msp.add_line((-ex, road + 0.6), (ex, road + 0.6), dxfattribs={"layer": "LOADS"})
+    msp.add_text("w = 6.5 kN/m", height=0.25, dxfattribs={"layer": "LOADS"}).set_placement(
+        (0.0, road + 0.8), align=TextEntityAlignment.MIDDLE_CENTER)
+    # Abutments, road and stream, for the picture only.
+    for x0, x1 in ((-7.5, -ex), (ex, 7.5)):
+        msp.add_lwpolyline([(x0, -1.5), (x0, road), (x1, road), (x1, -1.5)], dxfattribs={"layer": "STRUCTURE"})
+    msp.add_line((-9.0, road), (9.0, road), dxfattribs={"layer": "STRUCTURE"})
+    msp.add_lwpolyline([(-9.0, -0.2), (-4.5, -0.2), (-3.5, -1.3), (3.5, -1.3), (4.5, -0.2), (9.0, -0.2)],
+                       dxfattribs={"layer": "GROUND"})
+    msp.add_text("Linnet Beck", height=0.3, dxfattribs={"layer": "GROUND"}).set_placement(
+        (0.0, -1.0), align=TextEntityAlignment.BOTTOM_CENTER)
+    msp.add_text("WRENFIELD BRIDGE - EXISTING STONE ARCH (invented example)", height=0.4,
+                 dxfattribs={"layer": "TITLE"}).set_placement((-9.0, road + 2.0))
+    doc.saveas(os.path.join(DEMO, "wrenfield-bridge.dxf"))
 
 
 if __name__ == "__main__":

@@ -7,8 +7,11 @@ use anyhow::{Result, anyhow, bail};
 use clap::{Args, Parser, Subcommand};
 use kurbo::Point;
 
+use hangline::arch::slice::Cuts;
 use hangline::layout::{LayoutOptions, Role};
+use hangline::pipeline::assess::{AssessJob, Live, Trial, UnitWeight, Voussoirs};
 use hangline::pipeline::{ForceValue, Given, IntensityValue, Job, LengthValue};
+use hangline::read::arch::{ArchLayers, ArchReadOptions};
 use hangline::read::label::{parse_intensity, parse_quantity_force, parse_quantity_length};
 use hangline::read::{InputLayers, ReadOptions};
 use hangline::solve::Form;
@@ -29,6 +32,21 @@ Examples:
 Each fixed support point (POINT, CIRCLE or INSERT on the supports layer)
 counts as one condition; a tower axis (vertical LINE) counts as none.
 Exactly three conditions are needed in all.";
+
+const ASSESS_EXAMPLES: &str = "\
+Examples:
+  A stone arch 1.2 m wide, 22 kN/m3 masonry, 18 kN/m3 fill:
+    hangline assess bridge.dxf --unit-weight \"22 kN/m3\" --width 1.2 --fill-weight \"18 kN/m3\"
+  The load factor of a 60 kN axle load, at its worst place:
+    hangline assess bridge.dxf --unit-weight \"22 kN/m3\" --live-load \"60 kN\" --report bridge.json
+  A trial thrust line of 85 kN through the middle of both springings:
+    hangline assess bridge.dxf --unit-weight \"22 kN/m3\" --thrust \"85 kN\" --thrust-at 0.5,0.5
+
+The arch is read from its intrados and extrados (layers INTRADOS and
+EXTRADOS), fill regions from FILL, point and distributed loads from LOADS.
+The method assumes masonry with no tensile strength, unlimited compressive
+strength and no sliding: an assessment aid, to be checked by a qualified
+engineer under the local codes.";
 
 const INSPECT_EXAMPLES: &str = "\
 Examples:
@@ -58,6 +76,10 @@ pub enum Command {
     /// Find the funicular and write the drawing back with it.
     #[command(after_help = SOLVE_EXAMPLES)]
     Solve(Box<SolveArgs>),
+    /// Assess an existing arch: thrust lines inside its intrados and
+    /// extrados, the range of thrust, hinges and margins.
+    #[command(after_help = ASSESS_EXAMPLES)]
+    Assess(Box<AssessArgs>),
     /// Show what the drawing holds (supports, loads, units) without solving.
     #[command(after_help = INSPECT_EXAMPLES)]
     Inspect(InspectArgs),
@@ -189,6 +211,84 @@ pub struct SolveArgs {
     pub read: ReadArgs,
 }
 
+/// `hangline assess`.
+#[derive(Debug, Args)]
+pub struct AssessArgs {
+    /// The drawing of the arch (ASCII or binary DXF, R12 to R2018).
+    #[arg(value_name = "INPUT")]
+    pub input: PathBuf,
+    /// The output drawing (default: INPUT-hangline.dxf beside the input).
+    #[arg(short, long, value_name = "OUT.dxf")]
+    pub output: Option<PathBuf>,
+    /// Also write a JSON report.
+    #[arg(long, value_name = "FILE.json")]
+    pub report: Option<PathBuf>,
+    /// Unit weight of the masonry, e.g. "22 kN/m3" (or "140 pcf"); "0 kN/m3"
+    /// for a weightless ring carrying only the drawn loads.
+    #[arg(long, value_name = "WEIGHT", allow_hyphen_values = true)]
+    pub unit_weight: String,
+    /// Width of the arch out of the drawing's plane (default: 1 m).
+    #[arg(long, value_name = "LENGTH", allow_hyphen_values = true)]
+    pub width: Option<String>,
+    /// Unit weight of the fill drawn on the fill layer, e.g. "18 kN/m3".
+    #[arg(long, value_name = "WEIGHT", allow_hyphen_values = true)]
+    pub fill_weight: Option<String>,
+    /// Joints between voussoirs: radial (across the arch, the default) or
+    /// vertical.
+    #[arg(long, value_name = "KIND", default_value = "radial")]
+    pub cuts: String,
+    /// How many voussoirs (a number), or their size along the centre line
+    /// (a length such as "0.3 m"). Default: 48.
+    #[arg(long, value_name = "N|LENGTH")]
+    pub voussoirs: Option<String>,
+    /// Trace a trial thrust line of this horizontal thrust.
+    #[arg(long, value_name = "FORCE", allow_hyphen_values = true)]
+    pub thrust: Option<String>,
+    /// Where the trial line crosses the left and right springings, as
+    /// fractions of their depth from the intrados (default 0.5,0.5).
+    #[arg(long, value_name = "A,B", requires = "thrust")]
+    pub thrust_at: Option<String>,
+    /// A live point load (acting down) whose collapse factor is wanted.
+    #[arg(long, value_name = "FORCE", allow_hyphen_values = true)]
+    pub live_load: Option<String>,
+    /// The live load's x (default: every voussoir in turn, the worst
+    /// reported).
+    #[arg(long, value_name = "X", allow_hyphen_values = true, requires = "live_load")]
+    pub live_at: Option<String>,
+    /// Force polygon scale: force per drawing unit, e.g. "10 kN".
+    #[arg(long, value_name = "FORCE", allow_hyphen_values = true)]
+    pub force_scale: Option<String>,
+    /// Where to draw the top of the force polygon (default: beside the drawing).
+    #[arg(long, value_name = "X,Y", allow_hyphen_values = true)]
+    pub diagram_at: Option<String>,
+    /// Text height for annotations, drawing units (default: from the span).
+    #[arg(long, value_name = "LENGTH", allow_hyphen_values = true)]
+    pub text_height: Option<f64>,
+    /// Rename a layer: ROLE=NAME, repeatable. Input roles: intrados,
+    /// extrados, fill, loads; output roles: voussoirs, thrust-min,
+    /// thrust-max, thrust-trial, thrust-limit, thrust-collapse, hinges,
+    /// diagram, notes and the others of `solve`.
+    #[arg(long = "layer", value_name = "ROLE=NAME")]
+    pub layers: Vec<String>,
+    /// The drawing's length unit (mm, cm, dm, m, km, in, ft, yd), when
+    /// $INSUNITS is missing (R12) or wrong.
+    #[arg(long, value_name = "UNIT")]
+    pub units: Option<String>,
+    /// Force unit of the results (N, kN, MN, lbf, kip). Default: the labels'
+    /// unit when they all agree, else kN.
+    #[arg(long, value_name = "UNIT")]
+    pub force_unit: Option<String>,
+    /// Unit of load labels written without one (default kN).
+    #[arg(long, value_name = "UNIT")]
+    pub label_unit: Option<String>,
+    /// Allow the output to replace the input file.
+    #[arg(long)]
+    pub force: bool,
+    /// Print nothing but errors.
+    #[arg(short, long)]
+    pub quiet: bool,
+}
+
 /// `hangline inspect`.
 #[derive(Debug, Args)]
 pub struct InspectArgs {
@@ -241,7 +341,7 @@ fn parse_self_weight(s: &str) -> Result<IntensityValue> {
     let product = [" x ", " X ", "*", "\u{d7}"].iter().find_map(|sep| s.split_once(sep));
     if let Some((area, unit_weight)) = product {
         let (a, a_unit) = parse_power(area.trim(), 2, flag)?;
-        let (g, g_force, g_unit) = parse_unit_weight(unit_weight.trim(), flag)?;
+        let (g, g_force, g_unit) = parse_unit_weight(unit_weight.trim(), flag, false)?;
         // A [a_unit²] · γ [F/g_unit³] = A·(a_unit→g_unit)²·γ [F/g_unit]
         let w = a * a_unit.factor_to(g_unit).powi(2) * g;
         if !(w > 0.0 && w.is_finite()) {
@@ -273,7 +373,7 @@ fn parse_power(s: &str, power: u8, flag: &str) -> Result<(f64, LengthUnit)> {
 }
 
 /// A unit weight ("25 kN/m3", "150 pcf").
-fn parse_unit_weight(s: &str, flag: &str) -> Result<(f64, ForceUnit, LengthUnit)> {
+fn parse_unit_weight(s: &str, flag: &str, allow_zero: bool) -> Result<(f64, ForceUnit, LengthUnit)> {
     if let Some(v) = s.strip_suffix("pcf") {
         let v: f64 = v.trim().parse().map_err(|_| anyhow!("{flag}: '{s}' is not a unit weight"))?;
         return Ok((v, ForceUnit::PoundForce, LengthUnit::Foot));
@@ -283,8 +383,8 @@ fn parse_unit_weight(s: &str, flag: &str) -> Result<(f64, ForceUnit, LengthUnit)
     let (v, force) = parse_quantity_force(number.trim()).map_err(|e| anyhow!("{flag} {e}"))?;
     let force = force.ok_or_else(|| anyhow!("{flag}: '{s}' needs a force unit, such as '25 kN/m3'"))?;
     let (_, length) = parse_power(&format!("1 {}", per.trim()), 3, flag)?;
-    if !(v > 0.0 && v.is_finite()) {
-        bail!("{flag}: '{s}' must be positive");
+    if !((v > 0.0 || (allow_zero && v == 0.0)) && v.is_finite()) {
+        bail!("{flag}: '{s}' must be {}", if allow_zero { "zero or positive" } else { "positive" });
     }
     Ok((v, force, length))
 }
@@ -477,6 +577,135 @@ impl SolveArgs {
             self_weight,
             axial_stiffness,
             chord_tolerance,
+        })
+    }
+}
+
+impl AssessArgs {
+    /// Checks everything into an assessment job.
+    pub fn job(&self) -> Result<AssessJob> {
+        let mut input = ArchLayers::default();
+        let mut output = OutputLayers::default();
+        for spec in &self.layers {
+            let (role, name) = spec
+                .split_once('=')
+                .ok_or_else(|| anyhow!("--layer '{spec}' must be ROLE=NAME, e.g. --layer intrados=ARCH-SOFFIT"))?;
+            let (role, name) = (role.trim().to_ascii_lowercase(), name.trim());
+            if name.is_empty() {
+                bail!("--layer '{spec}': the layer name is empty");
+            }
+            match role.as_str() {
+                "intrados" => input.intrados = name.into(),
+                "extrados" => input.extrados = name.into(),
+                "fill" => {
+                    input.fill = name.into();
+                    input.fill_required = true;
+                }
+                "loads" => input.loads = name.into(),
+                other => {
+                    let role = Role::ALL.iter().find(|r| r.key() == other).ok_or_else(|| {
+                        anyhow!(
+                            "--layer '{spec}': unknown role '{other}'; roles are intrados, extrados, fill, loads, {}",
+                            Role::ALL.iter().map(|r| r.key()).collect::<Vec<_>>().join(", ")
+                        )
+                    })?;
+                    output.set(*role, name);
+                }
+            }
+        }
+        let inputs = [&input.intrados, &input.extrados, &input.fill, &input.loads];
+        for out in output.all() {
+            if inputs.iter().any(|i| hangline::dxf::names_match(i, out)) {
+                bail!(
+                    "--layer: '{out}' is both an input and an output layer; the tool replaces its output layers on every run, so give them different names"
+                );
+            }
+        }
+        let label_unit =
+            self.label_unit.as_deref().map_or(Ok(ForceUnit::Kilonewton), |u| parse_unit(u, "--label-unit"))?;
+        let read = ReadOptions {
+            layers: InputLayers::default(),
+            length_unit: self.units.as_deref().map(|u| parse_unit::<LengthUnit>(u, "--units")).transpose()?,
+            force_unit: self.force_unit.as_deref().map(|u| parse_unit::<ForceUnit>(u, "--force-unit")).transpose()?,
+            label_unit,
+            load_scale: None,
+        };
+        // Zero is allowed: a weightless ring carrying only the drawn loads.
+        let weight = |s: &str, flag: &str| -> Result<UnitWeight> {
+            let (value, force, length) = parse_unit_weight(s.trim(), flag, true)?;
+            Ok(UnitWeight { value, force, length })
+        };
+        let unit_weight = weight(&self.unit_weight, "--unit-weight")?;
+        let fill_weight = self.fill_weight.as_deref().map(|s| weight(s, "--fill-weight")).transpose()?;
+        let width = match &self.width {
+            Some(s) => parse_length(s, "--width")?,
+            None => LengthValue { value: 1.0, unit: Some(LengthUnit::Metre) },
+        };
+        let cuts = match self.cuts.trim().to_ascii_lowercase().as_str() {
+            "radial" => Cuts::Radial,
+            "vertical" => Cuts::Vertical,
+            other => bail!("--cuts '{other}': give radial or vertical"),
+        };
+        let voussoirs = match self.voussoirs.as_deref().map(str::trim) {
+            None => Voussoirs::Count(hangline::pipeline::assess::DEFAULT_VOUSSOIRS),
+            Some(s) => match s.parse::<usize>() {
+                Ok(n) if (1..=10_000).contains(&n) => Voussoirs::Count(n),
+                Ok(_) => bail!("--voussoirs {s}: give between 1 and 10000 voussoirs"),
+                Err(_) => Voussoirs::Size(parse_length(s, "--voussoirs")?),
+            },
+        };
+        let trial = match &self.thrust {
+            Some(t) => {
+                let thrust = parse_force(t, "--thrust")?;
+                let (left, right) = match &self.thrust_at {
+                    Some(s) => {
+                        let p = parse_point(s, "--thrust-at")?;
+                        (p.x, p.y)
+                    }
+                    None => (0.5, 0.5),
+                };
+                Some(Trial { thrust, left, right })
+            }
+            None => None,
+        };
+        let live = match &self.live_load {
+            Some(l) => {
+                let load = parse_force(l, "--live-load")?;
+                let at = match &self.live_at {
+                    Some(s) => {
+                        let x: f64 = s.trim().parse().map_err(|_| {
+                            anyhow!("--live-at '{s}' is not a number: give the x in drawing units, e.g. --live-at 4.5")
+                        })?;
+                        if !x.is_finite() {
+                            bail!("--live-at '{s}' must be a finite x");
+                        }
+                        Some(x)
+                    }
+                    None => None,
+                };
+                Some(Live { load, at })
+            }
+            None => None,
+        };
+        if let Some(h) = self.text_height
+            && !(h > 0.0 && h.is_finite())
+        {
+            bail!("--text-height must be a positive length in drawing units");
+        }
+        let force_scale = self.force_scale.as_deref().map(|s| parse_force(s, "--force-scale")).transpose()?;
+        let diagram_at = self.diagram_at.as_deref().map(|s| parse_point(s, "--diagram-at")).transpose()?;
+        Ok(AssessJob {
+            read: ArchReadOptions { layers: input, read },
+            unit_weight,
+            width,
+            fill_weight,
+            cuts,
+            voussoirs,
+            trial,
+            live,
+            layout: LayoutOptions { force_scale: None, diagram_at, text_height: self.text_height, self_weight: None },
+            force_scale,
+            layers: output,
         })
     }
 }

@@ -13,10 +13,13 @@ use std::process::ExitCode;
 use anyhow::{Context, Result, bail};
 use clap::Parser;
 
-use args::{Cli, Command, InspectArgs, SolveArgs};
+use args::{AssessArgs, Cli, Command, InspectArgs, SolveArgs};
+use hangline::layout::assess::ASSESS_CAUTION;
 use hangline::layout::nice::{fmt_force, fmt_length, member_name};
 use hangline::layout::result_line;
+use hangline::pipeline::assess::{AssessOutcome, prepare_assess};
 use hangline::pipeline::{self, Job};
+use hangline::report::assess::assess_report;
 use hangline::report::{CAUTION, inspection, report};
 use hangline::write::{Plan, Run};
 
@@ -24,6 +27,7 @@ fn main() -> ExitCode {
     let cli = Cli::parse();
     let result = match &cli.command {
         Command::Solve(a) => solve(a),
+        Command::Assess(a) => assess(a),
         Command::Inspect(a) => inspect(a).map(|()| true),
     };
     match result {
@@ -131,6 +135,31 @@ pub struct Done {
 /// Solves one drawing and writes its output (and report), each whole or not
 /// at all.
 pub fn solve_one(input: &Path, output: &Path, report_to: Option<&Path>, job: &Job, force: bool) -> Result<Done> {
+    let input_name = input.display().to_string();
+    let outcome = process(
+        input,
+        output,
+        report_to,
+        force,
+        |bytes| Ok(pipeline::prepare(bytes, job)?),
+        |o: &pipeline::Outcome| {
+            Ok(serde_json::to_value(report(&input_name, &o.reading, &o.carried, &o.solution, Some(&o.placement)))?)
+        },
+    )?;
+    Ok(Done { outcome, output: output.to_path_buf() })
+}
+
+/// Runs `work` on the input's bytes and writes the output drawing from its
+/// plan (and the report), each to a temporary file renamed into place only
+/// when everything worked.
+fn process<T>(
+    input: &Path,
+    output: &Path,
+    report_to: Option<&Path>,
+    force: bool,
+    work: impl FnOnce(&[u8]) -> Result<(T, Plan)>,
+    report: impl FnOnce(&T) -> Result<serde_json::Value>,
+) -> Result<T> {
     for (what, p) in [("output", Some(output)), ("report", report_to)] {
         if let Some(p) = p
             && p.is_dir()
@@ -148,7 +177,7 @@ pub fn solve_one(input: &Path, output: &Path, report_to: Option<&Path>, job: &Jo
     }
     let input_name = input.display().to_string();
     let (input_file, stamp, bytes) = open_input(input)?;
-    let (outcome, plan) = pipeline::prepare(&bytes, job).with_context(|| input_name.clone())?;
+    let (outcome, plan) = work(&bytes).with_context(|| input_name.clone())?;
 
     let mut temp = temp_beside(output)?;
     apply_plan(&plan, &input_file, temp.as_file_mut()).with_context(|| format!("cannot write {}", output.display()))?;
@@ -158,8 +187,7 @@ pub fn solve_one(input: &Path, output: &Path, report_to: Option<&Path>, job: &Jo
     let report_temp = match report_to {
         Some(path) => {
             let mut t = temp_beside(path)?;
-            let r =
-                report(&input_name, &outcome.reading, &outcome.carried, &outcome.solution, Some(&outcome.placement));
+            let r = report(&outcome)?;
             serde_json::to_writer_pretty(t.as_file_mut(), &r).context("cannot write the report")?;
             t.as_file_mut().write_all(b"\n").context("cannot write the report")?;
             Some((t, path))
@@ -170,7 +198,92 @@ pub fn solve_one(input: &Path, output: &Path, report_to: Option<&Path>, job: &Jo
     if let Some((t, path)) = report_temp {
         t.persist(path).with_context(|| format!("cannot write {}", path.display()))?;
     }
-    Ok(Done { outcome, output: output.to_path_buf() })
+    Ok(outcome)
+}
+
+/// `hangline assess`: one arch.
+fn assess(a: &AssessArgs) -> Result<bool> {
+    let job = a.job()?;
+    let input = &a.input;
+    let output = a.output.clone().unwrap_or_else(|| default_output(input));
+    let input_name = input.display().to_string();
+    let outcome = process(
+        input,
+        &output,
+        a.report.as_deref(),
+        a.force,
+        |bytes| Ok(prepare_assess(bytes, &job)?),
+        |o: &AssessOutcome| Ok(serde_json::to_value(assess_report(&input_name, &o.reading, &o.assessment, &job))?),
+    )?;
+    let q = a.quiet;
+    let r = &outcome.reading;
+    let s = &outcome.assessment;
+    let u = r.units;
+    for w in r.warnings.iter().chain(&s.warnings) {
+        warn(w);
+    }
+    let o = &s.outline;
+    say(
+        q,
+        &format!(
+            "read    {input_name} ({}, {}; lengths in {}, forces in {}): arch of span {}, rise {}, {} thick at the crown; {} fill region(s), {} point and {} distributed load(s)",
+            r.release.name(),
+            if r.binary { "binary" } else { "ASCII" },
+            u.length,
+            u.force,
+            fmt_length(o.span(), u.length),
+            fmt_length(o.rise(), u.length),
+            fmt_length(o.crown_thickness(), u.length),
+            r.fill.len(),
+            r.loads.len(),
+            r.distributed.len()
+        ),
+    );
+    let total: f64 = s.sliced.ring.blocks.iter().flatten().map(|l| -l.force.y).sum();
+    say(
+        q,
+        &format!(
+            "sliced  into {} voussoirs ({} joints), {} of load in all",
+            s.sliced.ring.blocks.len(),
+            match job.cuts {
+                hangline::arch::slice::Cuts::Radial => "radial",
+                hangline::arch::slice::Cuts::Vertical => "vertical",
+            },
+            fmt_force(total, u.force)
+        ),
+    );
+    for n in hangline::pipeline::assess::notes(s, u) {
+        say(q, &format!("found   {n}"));
+    }
+    if let Some(t) = &s.trial {
+        let outside = t.crossings.iter().filter(|c| c.is_none_or(|c| !(0.0..=1.0).contains(&c.position))).count();
+        say(
+            q,
+            &format!(
+                "trial   thrust {}: {}",
+                fmt_force(t.horizontal, u.force),
+                if outside == 0 {
+                    "inside the arch at every joint".to_string()
+                } else {
+                    format!("outside the arch at {outside} of {} joints", t.crossings.len())
+                }
+            ),
+        );
+    }
+    let sum = &outcome.summary;
+    let mut wrote = format!(
+        "wrote   {} ({} entities added{}{})",
+        output.display(),
+        sum.added,
+        if sum.new_layers.is_empty() { String::new() } else { format!(", {} layers", sum.new_layers.len()) },
+        if sum.replaced > 0 { format!(", {} from an earlier run replaced", sum.replaced) } else { String::new() }
+    );
+    if let Some(path) = &a.report {
+        wrote.push_str(&format!(" and {}", path.display()));
+    }
+    say(q, &wrote);
+    say(q, &format!("caution {ASSESS_CAUTION}"));
+    Ok(true)
 }
 
 /// `hangline solve`: one drawing in detail, or many in a batch. Returns
