@@ -91,6 +91,21 @@ pub enum SliceError {
         /// True when zero is not allowed either.
         positive: bool,
     },
+    /// Joints that cross each other or leave the arch: faces too uneven
+    /// for the cuts asked for.
+    #[error(
+        "the joints of voussoir {index} (near ({at})) cross each other or a face: the faces are too uneven for {count} {cuts} joints; use fewer voussoirs, the other kind of cuts, or smoother faces"
+    )]
+    JointsCross {
+        /// The voussoir, from 0 at the left springing.
+        index: usize,
+        /// Near where.
+        at: String,
+        /// How many voussoirs.
+        count: usize,
+        /// "radial" or "vertical".
+        cuts: &'static str,
+    },
     /// Zero voussoirs or too many.
     #[error("{count} voussoirs asked for; give between 1 and {MAX_VOUSSOIRS} (a larger voussoir size gives fewer)")]
     Count {
@@ -264,6 +279,19 @@ pub fn slice(
             ring.pop();
         }
         let poly = polygon(&ring);
+        // Crossing joints make a voussoir that is not a simple polygon,
+        // whose area and centroid mean nothing.
+        if !geo::Validation::is_valid(&poly) {
+            return Err(SliceError::JointsCross {
+                index: voussoirs.len(),
+                at: fmt_xy(a.joint.at(0.5)),
+                count: n,
+                cuts: match options.cuts {
+                    Cuts::Radial => "radial",
+                    Cuts::Vertical => "vertical",
+                },
+            });
+        }
         let weight = poly.unsigned_area() * options.weight_per_area;
         let mut mine = Vec::new();
         if weight > 0.0

@@ -225,6 +225,13 @@ pub fn assess(reading: &ArchReading, job: &AssessJob) -> Result<Assessment, Erro
         Err(e) => return Err(e.into()),
     };
     let thinnest = thrust::least_thickness(ring)?;
+    if range.is_none() {
+        warnings.push(format!(
+            "no thrust line fits inside the arch as drawn: it would need {:.3} times its thickness (geometric factor of safety {:.2})",
+            thinnest.ratio,
+            1.0 / thinnest.ratio
+        ));
+    }
     let middle_third = if range.is_some() { thrust::middle_third(ring)? } else { None };
     let trial = match job.trial {
         Some(t) => {
@@ -361,11 +368,19 @@ pub fn notes(a: &Assessment, units: Units) -> Vec<String> {
         None => n.push("No thrust line fits inside the arch as drawn".into()),
     }
     let ratio = a.thinnest.ratio;
-    n.push(format!(
-        "Geometric factor of safety {:.2} (least thickness {:.3} of the drawn thickness)",
-        1.0 / ratio,
-        ratio
-    ));
+    if ratio > 1.0 {
+        n.push(format!(
+            "It would need {ratio:.3} times its thickness (geometric factor of safety {:.2}): under these hypotheses it cannot stand",
+            1.0 / ratio
+        ));
+    } else if ratio < 1e-3 {
+        n.push("A thrust line runs along the centre line: the least thickness is below 0.001 of the drawn one".into());
+    } else {
+        n.push(format!(
+            "Geometric factor of safety {:.2} (least thickness {ratio:.3} of the drawn thickness)",
+            1.0 / ratio
+        ));
+    }
     n.push(if a.middle_third.is_some() {
         "A thrust line fits within the middle third (common practice rule)".into()
     } else {

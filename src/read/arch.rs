@@ -237,6 +237,9 @@ fn chain(name: &str, layer: &str, mut pieces: Vec<(Vec<Point>, Origin)>, gap: f6
     let mut points = first;
     let mut from = vec![origin];
     let near = |a: Point, b: Point| (a - b).hypot() <= gap;
+    // Round-off of arcs' ends (5.6e-16 for 0) would only distract.
+    let shown =
+        |p: Point| fmt_xy(Point::new(if p.x.abs() < gap { 0.0 } else { p.x }, if p.y.abs() < gap { 0.0 } else { p.y }));
     while !pieces.is_empty() {
         let (head, tail) = (points[0], points[points.len() - 1]);
         // The piece that continues the chain at either end.
@@ -260,10 +263,10 @@ fn chain(name: &str, layer: &str, mut pieces: Vec<(Vec<Point>, Origin)>, gap: f6
                 origin: o.to_string(),
                 problem: format!(
                     "this piece of the {name} does not meet the rest, whose ends are at ({}) and ({}) (it runs from ({}) to ({})); the {name} must be one chain of pieces meeting end to end: close the gap",
-                    fmt_xy(head),
-                    fmt_xy(tail),
-                    fmt_xy(p[0]),
-                    fmt_xy(p[p.len() - 1])
+                    shown(head),
+                    shown(tail),
+                    shown(p[0]),
+                    shown(p[p.len() - 1])
                 ),
             });
         };

@@ -3,6 +3,7 @@
 
 #![allow(clippy::print_stderr, missing_docs)]
 
+mod assess;
 mod bad;
 mod batch;
 mod behaviour;
