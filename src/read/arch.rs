@@ -13,8 +13,11 @@
 use kurbo::{Point, Rect};
 
 use super::drawn::{self, Drawn, drawn};
-use super::{Ignored, LoadRead, LoadsRead, ReadError, ReadOptions, StretchRead, check_finite, length_unit, read_loads};
-use crate::dxf::{File, Format, Release, ScanOptions, names_match};
+use super::{
+    DrawingLayers, Ignored, LoadRead, LoadsRead, ReadError, ReadOptions, StretchRead, check_finite, length_unit,
+    read_loads,
+};
+use crate::dxf::{File, Format, Release, ScanOptions};
 use crate::model::{DistributedLoad, Load, Origin, fmt_num, fmt_xy};
 use crate::units::Units;
 
@@ -113,29 +116,12 @@ pub fn scan_options<'a>(layers: &ArchLayers, extra: impl Iterator<Item = &'a str
 pub fn read_arch(file: &File<'_>, options: &ArchReadOptions) -> Result<ArchReading, ReadError> {
     let layers = &options.layers;
     let mut warnings: Vec<String> = file.warnings.clone();
-    let table_layers: Vec<String> =
-        file.table("LAYER").map(|t| t.records.iter().map(|r| r.name.clone()).collect()).unwrap_or_default();
-    let on = |name: &str| -> Vec<&crate::dxf::EntityRef> {
-        file.entities.iter().filter(|e| names_match(&e.layer, name)).collect()
-    };
-    let exists = |name: &str| table_layers.iter().any(|l| names_match(l, name)) || !on(name).is_empty();
-    let present = || {
-        let mut l = table_layers.clone();
-        l.truncate(20);
-        if l.is_empty() { "none".to_string() } else { l.join(", ") }
-    };
-    for (role, key, layer) in [("intrados", "intrados", &layers.intrados), ("extrados", "extrados", &layers.extrados)] {
-        if !exists(layer) {
-            return Err(ReadError::MissingLayer { role, key, layer: layer.clone(), present: present() });
-        }
-    }
-    if layers.fill_required && !exists(&layers.fill) {
-        return Err(ReadError::MissingLayer {
-            role: "fill",
-            key: "fill",
-            layer: layers.fill.clone(),
-            present: present(),
-        });
+    let drawing = DrawingLayers::new(file);
+    let on = |name: &str| drawing.on(name);
+    drawing.require("intrados", "intrados", &layers.intrados)?;
+    drawing.require("extrados", "extrados", &layers.extrados)?;
+    if layers.fill_required {
+        drawing.require("fill", "fill", &layers.fill)?;
     }
     if file.paper_space_kept > 0 {
         warnings.push(format!(
@@ -216,7 +202,7 @@ pub fn read_arch(file: &File<'_>, options: &ArchReadOptions) -> Result<ArchReadi
         extents,
         release: file.release,
         binary: file.format != Format::Ascii,
-        layers: table_layers,
+        layers: drawing.table,
         warnings,
     })
 }

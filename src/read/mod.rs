@@ -211,6 +211,36 @@ pub fn scan_options<'a>(layers: &InputLayers, extra: impl Iterator<Item = &'a st
     ScanOptions { keep_layers: keep, skip_extents_layers: extra, ..ScanOptions::default() }
 }
 
+/// The drawing's layers (from its LAYER table) and the entities on them.
+pub(crate) struct DrawingLayers<'a, 'f> {
+    file: &'a File<'f>,
+    /// The layer names in the LAYER table.
+    pub table: Vec<String>,
+}
+
+impl<'a, 'f> DrawingLayers<'a, 'f> {
+    pub(crate) fn new(file: &'a File<'f>) -> Self {
+        let table = file.table("LAYER").map(|t| t.records.iter().map(|r| r.name.clone()).collect()).unwrap_or_default();
+        DrawingLayers { file, table }
+    }
+
+    /// The kept entities on layer `name`.
+    pub(crate) fn on(&self, name: &str) -> Vec<&'a crate::dxf::EntityRef> {
+        self.file.entities.iter().filter(|e| names_match(&e.layer, name)).collect()
+    }
+
+    /// An error unless the layer is in the table or holds an entity.
+    pub(crate) fn require(&self, role: &'static str, key: &'static str, layer: &str) -> Result<(), ReadError> {
+        if self.table.iter().any(|l| names_match(l, layer)) || !self.on(layer).is_empty() {
+            return Ok(());
+        }
+        let mut l = self.table.clone();
+        l.truncate(20);
+        let present = if l.is_empty() { "none".to_string() } else { l.join(", ") };
+        Err(ReadError::MissingLayer { role, key, layer: layer.to_string(), present })
+    }
+}
+
 /// Tolerance for "vertical": |dx| at most this fraction of a line's length
 /// counts as exactly vertical (drafting noise of snapped lines; our choice).
 const VERTICAL: f64 = 1e-9;
@@ -219,29 +249,12 @@ const VERTICAL: f64 = 1e-9;
 pub fn read(file: &File<'_>, options: &ReadOptions) -> Result<Reading, ReadError> {
     let layers = &options.layers;
     let mut warnings: Vec<String> = file.warnings.clone();
-    let table_layers: Vec<String> =
-        file.table("LAYER").map(|t| t.records.iter().map(|r| r.name.clone()).collect()).unwrap_or_default();
-    let on = |name: &str| -> Vec<&crate::dxf::EntityRef> {
-        file.entities.iter().filter(|e| names_match(&e.layer, name)).collect()
-    };
-    let exists = |name: &str| table_layers.iter().any(|l| names_match(l, name)) || !on(name).is_empty();
-    let present = || {
-        let mut l = table_layers.clone();
-        l.truncate(20);
-        if l.is_empty() { "none".to_string() } else { l.join(", ") }
-    };
-    for (role, key, layer) in [("supports", "supports", &layers.supports), ("loads", "loads", &layers.loads)] {
-        if !exists(layer) {
-            return Err(ReadError::MissingLayer { role, key, layer: layer.clone(), present: present() });
-        }
-    }
-    if layers.deck_required && !exists(&layers.deck) {
-        return Err(ReadError::MissingLayer {
-            role: "deck",
-            key: "deck",
-            layer: layers.deck.clone(),
-            present: present(),
-        });
+    let drawing = DrawingLayers::new(file);
+    let on = |name: &str| drawing.on(name);
+    drawing.require("supports", "supports", &layers.supports)?;
+    drawing.require("loads", "loads", &layers.loads)?;
+    if layers.deck_required {
+        drawing.require("deck", "deck", &layers.deck)?;
     }
     if file.paper_space_kept > 0 {
         warnings.push(format!(
@@ -330,7 +343,7 @@ pub fn read(file: &File<'_>, options: &ReadOptions) -> Result<Reading, ReadError
         binary: file.format != Format::Ascii,
         length_source,
         force_source,
-        layers: table_layers,
+        layers: drawing.table,
         warnings,
     })
 }
@@ -383,9 +396,8 @@ pub(crate) fn read_loads(
     tolerance: f64,
     warnings: &mut Vec<String>,
 ) -> Result<LoadsRead, ReadError> {
-    let on = |name: &str| -> Vec<&crate::dxf::EntityRef> {
-        file.entities.iter().filter(|e| names_match(&e.layer, name)).collect()
-    };
+    let drawing = DrawingLayers::new(file);
+    let on = |name: &str| drawing.on(name);
     // Loads: lines and blocks, and the texts that label them.
     let mut items: Vec<LoadItem> = Vec::new();
     let mut texts: Vec<(LabelText, Origin)> = Vec::new();

@@ -393,6 +393,55 @@ fn parse_unit<T: std::str::FromStr<Err = String>>(s: &str, flag: &str) -> Result
     s.parse::<T>().map_err(|e| anyhow!("{flag}: {e}"))
 }
 
+/// Reads `--layer ROLE=NAME` specs: `input` takes an input role (and says
+/// whether it knew it); the others rename output layers.
+fn layer_specs(
+    specs: &[String],
+    input_roles: &str,
+    example: &str,
+    mut input: impl FnMut(&str, &str) -> bool,
+) -> Result<OutputLayers> {
+    let mut output = OutputLayers::default();
+    for spec in specs {
+        let (role, name) = spec
+            .split_once('=')
+            .ok_or_else(|| anyhow!("--layer '{spec}' must be ROLE=NAME, e.g. --layer {example}"))?;
+        let (role, name) = (role.trim().to_ascii_lowercase(), name.trim());
+        if name.is_empty() {
+            bail!("--layer '{spec}': the layer name is empty");
+        }
+        if input(&role, name) {
+            continue;
+        }
+        let role = Role::ALL.iter().find(|r| r.key() == role).ok_or_else(|| {
+            anyhow!(
+                "--layer '{spec}': unknown role '{role}'; roles are {input_roles}, {}",
+                Role::ALL.iter().map(|r| r.key()).collect::<Vec<_>>().join(", ")
+            )
+        })?;
+        output.set(*role, name);
+    }
+    Ok(output)
+}
+
+/// An error when an output layer is also an input layer, or two output
+/// roles share a layer.
+fn distinct(output: &OutputLayers, inputs: &[&String]) -> Result<()> {
+    for out in output.all() {
+        if inputs.iter().any(|i| hangline::dxf::names_match(i, out)) {
+            bail!(
+                "--layer: '{out}' is both an input and an output layer; the tool replaces its output layers on every run, so give them different names"
+            );
+        }
+    }
+    let mut outs: Vec<&str> = output.all().collect();
+    outs.sort_by_key(|n| n.to_uppercase());
+    if outs.windows(2).any(|w| hangline::dxf::names_match(w[0], w[1])) {
+        bail!("--layer: two output roles share one layer; give each its own");
+    }
+    Ok(())
+}
+
 impl ReadArgs {
     fn label_unit(&self) -> Result<ForceUnit> {
         self.label_unit.as_deref().map_or(Ok(ForceUnit::Kilonewton), |u| parse_unit(u, "--label-unit"))
@@ -415,16 +464,8 @@ impl ReadArgs {
     /// Checks the reading options; also returns the output layer names.
     pub fn options(&self) -> Result<(ReadOptions, OutputLayers)> {
         let mut input = InputLayers::default();
-        let mut output = OutputLayers::default();
-        for spec in &self.layers {
-            let (role, name) = spec
-                .split_once('=')
-                .ok_or_else(|| anyhow!("--layer '{spec}' must be ROLE=NAME, e.g. --layer loads=LASTEN"))?;
-            let (role, name) = (role.trim().to_ascii_lowercase(), name.trim());
-            if name.is_empty() {
-                bail!("--layer '{spec}': the layer name is empty");
-            }
-            match role.as_str() {
+        let output = layer_specs(&self.layers, "supports, loads, deck, hangers", "loads=LASTEN", |role, name| {
+            match role {
                 "supports" => input.supports = name.into(),
                 "loads" => input.loads = name.into(),
                 "deck" => {
@@ -435,30 +476,11 @@ impl ReadArgs {
                     input.hangers = name.into();
                     input.hangers_required = true;
                 }
-                other => {
-                    let role = Role::ALL.iter().find(|r| r.key() == other).ok_or_else(|| {
-                        anyhow!(
-                            "--layer '{spec}': unknown role '{other}'; roles are supports, loads, deck, hangers, {}",
-                            Role::ALL.iter().map(|r| r.key()).collect::<Vec<_>>().join(", ")
-                        )
-                    })?;
-                    output.set(*role, name);
-                }
+                _ => return false,
             }
-        }
-        let inputs = [&input.supports, &input.loads, &input.deck, &input.hangers];
-        for out in output.all() {
-            if inputs.iter().any(|i| hangline::dxf::names_match(i, out)) {
-                bail!(
-                    "--layer: '{out}' is both an input and an output layer; the tool replaces its output layers on every run, so give them different names"
-                );
-            }
-        }
-        let mut outs: Vec<&str> = output.all().collect();
-        outs.sort_by_key(|n| n.to_uppercase());
-        if outs.windows(2).any(|w| hangline::dxf::names_match(w[0], w[1])) {
-            bail!("--layer: two output roles share one layer; give each its own");
-        }
+            true
+        })?;
+        distinct(&output, &[&input.supports, &input.loads, &input.deck, &input.hangers])?;
         let load_scale = match &self.load_scale {
             Some(s) => {
                 let f = parse_force(s, "--load-scale")?;
@@ -585,42 +607,21 @@ impl AssessArgs {
     /// Checks everything into an assessment job.
     pub fn job(&self) -> Result<AssessJob> {
         let mut input = ArchLayers::default();
-        let mut output = OutputLayers::default();
-        for spec in &self.layers {
-            let (role, name) = spec
-                .split_once('=')
-                .ok_or_else(|| anyhow!("--layer '{spec}' must be ROLE=NAME, e.g. --layer intrados=ARCH-SOFFIT"))?;
-            let (role, name) = (role.trim().to_ascii_lowercase(), name.trim());
-            if name.is_empty() {
-                bail!("--layer '{spec}': the layer name is empty");
-            }
-            match role.as_str() {
-                "intrados" => input.intrados = name.into(),
-                "extrados" => input.extrados = name.into(),
-                "fill" => {
-                    input.fill = name.into();
-                    input.fill_required = true;
+        let output =
+            layer_specs(&self.layers, "intrados, extrados, fill, loads", "intrados=ARCH-SOFFIT", |role, name| {
+                match role {
+                    "intrados" => input.intrados = name.into(),
+                    "extrados" => input.extrados = name.into(),
+                    "fill" => {
+                        input.fill = name.into();
+                        input.fill_required = true;
+                    }
+                    "loads" => input.loads = name.into(),
+                    _ => return false,
                 }
-                "loads" => input.loads = name.into(),
-                other => {
-                    let role = Role::ALL.iter().find(|r| r.key() == other).ok_or_else(|| {
-                        anyhow!(
-                            "--layer '{spec}': unknown role '{other}'; roles are intrados, extrados, fill, loads, {}",
-                            Role::ALL.iter().map(|r| r.key()).collect::<Vec<_>>().join(", ")
-                        )
-                    })?;
-                    output.set(*role, name);
-                }
-            }
-        }
-        let inputs = [&input.intrados, &input.extrados, &input.fill, &input.loads];
-        for out in output.all() {
-            if inputs.iter().any(|i| hangline::dxf::names_match(i, out)) {
-                bail!(
-                    "--layer: '{out}' is both an input and an output layer; the tool replaces its output layers on every run, so give them different names"
-                );
-            }
-        }
+                true
+            })?;
+        distinct(&output, &[&input.intrados, &input.extrados, &input.fill, &input.loads])?;
         let label_unit =
             self.label_unit.as_deref().map_or(Ok(ForceUnit::Kilonewton), |u| parse_unit(u, "--label-unit"))?;
         let read = ReadOptions {

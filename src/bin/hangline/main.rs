@@ -201,6 +201,21 @@ fn process<T>(
     Ok(outcome)
 }
 
+/// The line saying what was written.
+fn wrote_line(output: &Path, sum: &hangline::write::Summary, report: Option<&Path>) -> String {
+    let mut wrote = format!(
+        "wrote   {} ({} entities added{}{})",
+        output.display(),
+        sum.added,
+        if sum.new_layers.is_empty() { String::new() } else { format!(", {} layers", sum.new_layers.len()) },
+        if sum.replaced > 0 { format!(", {} from an earlier run replaced", sum.replaced) } else { String::new() }
+    );
+    if let Some(path) = report {
+        wrote.push_str(&format!(" and {}", path.display()));
+    }
+    wrote
+}
+
 /// `hangline assess`: one arch.
 fn assess(a: &AssessArgs) -> Result<bool> {
     let job = a.job()?;
@@ -270,18 +285,7 @@ fn assess(a: &AssessArgs) -> Result<bool> {
             ),
         );
     }
-    let sum = &outcome.summary;
-    let mut wrote = format!(
-        "wrote   {} ({} entities added{}{})",
-        output.display(),
-        sum.added,
-        if sum.new_layers.is_empty() { String::new() } else { format!(", {} layers", sum.new_layers.len()) },
-        if sum.replaced > 0 { format!(", {} from an earlier run replaced", sum.replaced) } else { String::new() }
-    );
-    if let Some(path) = &a.report {
-        wrote.push_str(&format!(" and {}", path.display()));
-    }
-    say(q, &wrote);
+    say(q, &wrote_line(&output, &outcome.summary, a.report.as_deref()));
     say(q, &format!("caution {ASSESS_CAUTION}"));
     Ok(true)
 }
@@ -360,18 +364,7 @@ fn solve(a: &SolveArgs) -> Result<bool> {
             ),
         );
     }
-    let sum = &outcome.summary;
-    let mut wrote = format!(
-        "wrote   {} ({} entities added{}{})",
-        output.display(),
-        sum.added,
-        if sum.new_layers.is_empty() { String::new() } else { format!(", {} layers", sum.new_layers.len()) },
-        if sum.replaced > 0 { format!(", {} from an earlier run replaced", sum.replaced) } else { String::new() }
-    );
-    if let Some(path) = &a.report {
-        wrote.push_str(&format!(" and {}", path.display()));
-    }
-    say(q, &wrote);
+    say(q, &wrote_line(&output, &outcome.summary, a.report.as_deref()));
     say(q, &format!("caution {CAUTION}"));
     Ok(true)
 }
