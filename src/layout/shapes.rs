@@ -123,7 +123,7 @@ impl Role {
             Role::Voussoirs => 8,
             Role::ThrustMin => 1,
             Role::ThrustMax => 150,
-            Role::ThrustTrial => 6,
+            Role::ThrustTrial => 4,
             Role::ThrustLimit => 40,
             Role::ThrustCollapse => 210,
             Role::Hinges => 7,
