@@ -36,6 +36,7 @@
 //!     self_weight: None,
 //!     axial_stiffness: None,
 //!     chord_tolerance: None,
+//!     alternatives: Vec::new(),
 //! };
 //! let mut output = Vec::new();
 //! let outcome = run(&drawing, &job, &mut output)?;

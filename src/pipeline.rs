@@ -11,7 +11,7 @@ use kurbo::Point;
 use crate::carry::{Carried, carry};
 use crate::dxf::File;
 use crate::error::Error;
-use crate::layout::{LayoutOptions, Placement, layout};
+use crate::layout::{Additions, LayoutOptions, Placement, Role, Shape, Variant, compare, layout};
 use crate::model::ModelError;
 use crate::read::{ReadOptions, Reading, read, scan_options};
 use crate::solve::{Condition, Form, Solution, SolveOptions, solve_with};
@@ -91,6 +91,9 @@ pub struct Job {
     pub axial_stiffness: Option<ForceValue>,
     /// Chord tolerance of the drawn profile for continuous loads.
     pub chord_tolerance: Option<LengthValue>,
+    /// Design alternatives: one more condition each (the values of the one
+    /// condition given as a list); empty for a single solution.
+    pub alternatives: Vec<Given>,
 }
 
 /// What came of a job.
@@ -106,6 +109,62 @@ pub struct Outcome {
     pub placement: Placement,
     /// What the writer did.
     pub summary: Summary,
+    /// With alternatives: each one's name and funicular (the first is
+    /// `solution`).
+    pub alternatives: Vec<Alternative>,
+}
+
+/// One design alternative's result.
+#[derive(Clone, Debug)]
+pub struct Alternative {
+    /// Its name: the condition and value as in its layers' suffix (`SAG-4_5`).
+    pub name: String,
+    /// The condition that differs.
+    pub given: Given,
+    /// The funicular.
+    pub solution: Solution,
+}
+
+impl Given {
+    /// The condition and its value in words, as given (`sag 4.5`,
+    /// `thrust 450 kN`).
+    #[must_use]
+    pub fn words(&self) -> String {
+        let num = crate::model::fmt_num;
+        let force = |f: ForceValue| format!("{}{}", num(f.value), f.unit.map_or(String::new(), |u| format!(" {u}")));
+        let length = |l: LengthValue| format!("{}{}", num(l.value), l.unit.map_or(String::new(), |u| format!(" {u}")));
+        match *self {
+            Given::Through(x, y) => format!("through ({}, {})", num(x), num(y)),
+            Given::Thrust(f) => format!("thrust {}", force(f)),
+            Given::Sag(l) => format!("sag {}", length(l)),
+            Given::Rise(l) => format!("rise {}", length(l)),
+            Given::MaxForce(f) => format!("largest force {}", force(f)),
+            Given::LevelAt(x) => format!("level at x = {}", num(x)),
+            Given::Length(l) => format!("length {}", length(l)),
+            Given::UnstressedLength(l) => format!("unstressed length {}", length(l)),
+        }
+    }
+
+    /// The condition and its value for a layer-name suffix and the
+    /// comparison table: `SAG-4_5`, `THRUST-450KN` (R12-safe characters:
+    /// letters, digits, `-` and `_`).
+    #[must_use]
+    pub fn tag(&self) -> String {
+        let num = |v: f64| crate::model::fmt_num(v).replace('.', "_");
+        let force = |f: ForceValue| format!("{}{}", num(f.value), f.unit.map_or(String::new(), |u| u.to_string()));
+        let length = |l: LengthValue| format!("{}{}", num(l.value), l.unit.map_or(String::new(), |u| u.to_string()));
+        let raw = match *self {
+            Given::Through(x, y) => format!("THROUGH-{}_{}", num(x), num(y)),
+            Given::Thrust(f) => format!("THRUST-{}", force(f)),
+            Given::Sag(l) => format!("SAG-{}", length(l)),
+            Given::Rise(l) => format!("RISE-{}", length(l)),
+            Given::MaxForce(f) => format!("MAXFORCE-{}", force(f)),
+            Given::LevelAt(x) => format!("LEVELAT-{}", num(x)),
+            Given::Length(l) => format!("LENGTH-{}", length(l)),
+            Given::UnstressedLength(l) => format!("UNSTRESSED-{}", length(l)),
+        };
+        raw.to_uppercase().chars().filter(|c| c.is_ascii_alphanumeric() || matches!(c, '-' | '_')).collect()
+    }
 }
 
 /// The solver's options in the model's units.
@@ -195,20 +254,80 @@ pub fn prepare(bytes: &[u8], job: &Job) -> Result<(Outcome, Plan), Error> {
     if !reading.structure.has_loads() && options.self_weight.is_none() {
         return Err(ModelError::NoLoads { layer: job.read.layers.loads.clone() }.into());
     }
-    let conditions = conditions(&job.given, job.form, units)?;
     let carried = carry(&reading.structure, &reading.hangers);
-    let mut solution = solve_with(&carried.structure, job.form, &conditions, &options)?;
-    solution.warnings.extend(sanity(&reading, &conditions));
     let mut layout_options = job.layout;
     layout_options.self_weight = options.self_weight;
     if let Some(f) = job.force_scale {
         let unit = reading.structure.units().force;
         layout_options.force_scale = Some(f.value * f.unit.map_or(1.0, |u| u.factor_to(unit)));
     }
-    let (additions, placement) =
-        layout(&carried.structure, &reading.structure, &solution, reading.extents, &layout_options);
+    if job.alternatives.is_empty() {
+        let conditions = conditions(&job.given, job.form, units)?;
+        let mut solution = solve_with(&carried.structure, job.form, &conditions, &options)?;
+        solution.warnings.extend(sanity(&reading, &conditions));
+        let (additions, placement) =
+            layout(&carried.structure, &reading.structure, &solution, reading.extents, &layout_options);
+        let (plan, summary) = plan(&file, &additions, &job.layers)?;
+        return Ok((Outcome { reading, carried, solution, placement, summary, alternatives: Vec::new() }, plan));
+    }
+
+    // Alternatives: each solved on its own, then drawn on its own layers
+    // with one force scale and one load line, so that the poles share the
+    // pole axis (the line through the closing point parallel to the chord).
+    let mut alternatives = Vec::new();
+    for given in &job.alternatives {
+        let mut all = job.given.clone();
+        all.push(*given);
+        let conditions = conditions(&all, job.form, units)?;
+        let name = given.tag();
+        let mut solution = solve_with(&carried.structure, job.form, &conditions, &options)
+            .map_err(|e| Error::Condition(format!("alternative {name}: {e}")))?;
+        solution.warnings.extend(sanity(&reading, &conditions));
+        alternatives.push(Alternative { name, given: *given, solution });
+    }
+    let first = |o: &LayoutOptions, a: &Alternative| {
+        layout(&carried.structure, &reading.structure, &a.solution, reading.extents, o)
+    };
+    // The coarsest scale fits every pole; the first alternative's diagram
+    // place with it is everyone's.
+    let scale = alternatives.iter().map(|a| first(&layout_options, a).1.force_scale).fold(0.0, f64::max);
+    let mut shared = layout_options;
+    shared.force_scale = Some(scale);
+    let placement = first(&shared, &alternatives[0]).1;
+    shared.diagram_at = Some(placement.diagram_at);
+    let (base, _) = first(&shared, &alternatives[0]);
+    let mut additions = Additions { items: Vec::new(), dim_style: base.dim_style, variants: Vec::new() };
+    // The table goes where the notes would: left of and below every
+    // alternative's diagram.
+    let mut anchor = Point::new(f64::INFINITY, f64::INFINITY);
+    for (k, a) in alternatives.iter().enumerate() {
+        let (adds, _) = first(&shared, a);
+        let mut own = Vec::new();
+        let mut top = f64::NEG_INFINITY;
+        for item in adds.items {
+            match (item.role, &item.shape) {
+                (Role::Notes, Shape::Text(t)) => {
+                    anchor.x = anchor.x.min(t.at.x);
+                    top = top.max(t.at.y);
+                }
+                (Role::Notes, _) => {}
+                (Role::LoadDiagram, _) if k > 0 => {}
+                (Role::LoadDiagram, _) => additions.items.push(item),
+                _ => own.push(item),
+            }
+        }
+        anchor.y = anchor.y.min(top);
+        let start = additions.items.len();
+        additions.items.extend(own);
+        additions.variants.push(Variant { items: start..additions.items.len(), suffix: a.name.clone() });
+    }
+    let words: Vec<String> = alternatives.iter().map(|a| format!("{} ({})", a.given.words(), a.name)).collect();
+    let rows: Vec<(&str, &Solution)> =
+        words.iter().map(String::as_str).zip(alternatives.iter().map(|a| &a.solution)).collect();
+    additions.items.extend(compare::comparison_items(&carried.structure, &rows, anchor, placement.text_height));
     let (plan, summary) = plan(&file, &additions, &job.layers)?;
-    Ok((Outcome { reading, carried, solution, placement, summary }, plan))
+    let solution = alternatives[0].solution.clone();
+    Ok((Outcome { reading, carried, solution, placement, summary, alternatives }, plan))
 }
 
 #[cfg(test)]
@@ -244,6 +363,21 @@ mod tests {
             self_weight: None,
             axial_stiffness: None,
             chord_tolerance: None,
+            alternatives: Vec::new(),
+        }
+    }
+
+    #[test]
+    fn alternatives_are_named_with_r12_safe_layer_suffixes() {
+        let l = |value, unit| LengthValue { value, unit };
+        assert_eq!(Given::Sag(l(4.5, None)).tag(), "SAG-4_5");
+        assert_eq!(Given::Thrust(ForceValue { value: 450.0, unit: Some(ForceUnit::Kilonewton) }).tag(), "THRUST-450KN");
+        assert_eq!(Given::LevelAt(-3.25).tag(), "LEVELAT--3_25");
+        assert_eq!(Given::Sag(l(4.5, Some(LengthUnit::Metre))).words(), "sag 4.5 m");
+        for g in [Given::Sag(l(4.5, None)), Given::LevelAt(-3.25), Given::Length(l(43.0, Some(LengthUnit::Foot)))] {
+            let layer = format!("HANGLINE-PROFILE-{}", g.tag());
+            assert!(crate::write::check_layer_name(&layer, crate::dxf::Release::R12).is_ok(), "{layer}");
+            assert!(crate::write::is_variant_of("HANGLINE-PROFILE", &layer), "{layer}");
         }
     }
 

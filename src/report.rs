@@ -33,6 +33,57 @@ use crate::units::Units;
 /// The caution every report carries.
 pub const CAUTION: &str = "hangline is a preliminary design aid: its results must be checked by a qualified engineer under the local codes before they are used.";
 
+/// One design alternative in the report: what the comparison table shows.
+#[derive(Clone, Debug, PartialEq, Serialize)]
+pub struct AlternativeOut {
+    /// Its name, also the suffix of its layers (`SAG-4_5`).
+    pub name: String,
+    /// The condition that differs, in words (`sag 4.5`).
+    pub condition: String,
+    /// Horizontal thrust.
+    pub thrust: f64,
+    /// The largest force along the profile.
+    pub max_force: f64,
+    /// Sag or rise.
+    pub sag: f64,
+    /// Heights found for tower axes: `{ side, height }`.
+    pub towers: Vec<TowerHeightOut>,
+    /// Profile length.
+    pub length: f64,
+    /// The profile's nodes.
+    pub nodes: Vec<Xy>,
+}
+
+/// A tower height of an alternative.
+#[derive(Clone, Copy, Debug, PartialEq, Serialize)]
+pub struct TowerHeightOut {
+    /// 0 left, 1 right.
+    pub side: usize,
+    /// Height above the axis line's foot.
+    pub height: f64,
+}
+
+impl Report {
+    /// The report with the alternatives' rows.
+    #[must_use]
+    pub fn with_alternatives(mut self, alternatives: &[crate::pipeline::Alternative]) -> Report {
+        self.alternatives = alternatives
+            .iter()
+            .map(|a| AlternativeOut {
+                name: a.name.clone(),
+                condition: a.given.words(),
+                thrust: a.solution.thrust,
+                max_force: a.solution.max_force().max(a.solution.peak.force),
+                sag: a.solution.sag.value,
+                towers: a.solution.towers.iter().map(|t| TowerHeightOut { side: t.side, height: t.height }).collect(),
+                length: a.solution.length(),
+                nodes: a.solution.nodes.iter().map(|&p| p.into()).collect(),
+            })
+            .collect();
+        self
+    }
+}
+
 /// An x, y pair.
 #[derive(Clone, Copy, Debug, PartialEq, Serialize)]
 pub struct Xy {
@@ -290,6 +341,9 @@ pub struct Report {
     pub checks: Checks,
     /// Warnings from reading and solving.
     pub warnings: Vec<String>,
+    /// Design alternatives (a condition given as a list): one row each.
+    #[serde(skip_serializing_if = "Vec::is_empty")]
+    pub alternatives: Vec<AlternativeOut>,
 }
 
 /// Builds the report.
@@ -333,6 +387,7 @@ pub fn report(
     Report {
         tool: format!("hangline {}", env!("CARGO_PKG_VERSION")),
         caution: CAUTION,
+        alternatives: Vec::new(),
         input: InputOut::new(input, reading),
         structure: solution.form.to_string(),
         units: st.units(),

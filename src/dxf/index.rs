@@ -19,6 +19,10 @@ pub struct ScanOptions {
     pub keep_layers: Vec<String>,
     /// Layers whose entities do not count toward [`File::extents`].
     pub skip_extents_layers: Vec<String>,
+    /// Layer-name prefixes treated as if listed in both `keep_layers` and
+    /// `skip_extents_layers` (the tool's layers of design alternatives,
+    /// whose names carry a value).
+    pub keep_prefixes: Vec<String>,
     /// An ASCII ENTITIES section at least this long is scanned in two halves
     /// on two threads (default [`PARALLEL_FROM`]).
     pub parallel_from: usize,
@@ -26,7 +30,12 @@ pub struct ScanOptions {
 
 impl Default for ScanOptions {
     fn default() -> Self {
-        ScanOptions { keep_layers: Vec::new(), skip_extents_layers: Vec::new(), parallel_from: PARALLEL_FROM }
+        ScanOptions {
+            keep_layers: Vec::new(),
+            skip_extents_layers: Vec::new(),
+            keep_prefixes: Vec::new(),
+            parallel_from: PARALLEL_FROM,
+        }
     }
 }
 
@@ -152,6 +161,20 @@ pub fn names_match(a: &str, b: &str) -> bool {
 
 /// True when a layer name as stored is one of `names` (ignoring case);
 /// without decoding or allocating when the name is ASCII, as most are.
+/// True when the layer's name starts with one of `prefixes` (ignoring case).
+fn layer_prefixed(raw: &[u8], prefixes: &[String], encoding: TextEncoding) -> bool {
+    if prefixes.is_empty() {
+        return false;
+    }
+    let raw = raw.trim_ascii();
+    if raw.is_ascii() {
+        prefixes.iter().any(|n| raw.len() > n.len() && n.as_bytes().eq_ignore_ascii_case(&raw[..n.len()]))
+    } else {
+        let name = encoding.decode(raw).trim().to_uppercase();
+        prefixes.iter().any(|n| name.len() > n.len() && name.starts_with(&n.to_uppercase()))
+    }
+}
+
 fn layer_in(raw: &[u8], names: &[String], encoding: TextEncoding) -> bool {
     let raw = raw.trim_ascii();
     if raw.is_ascii() {
@@ -1006,7 +1029,8 @@ fn scan_entities_cursor(
             }
             continue;
         }
-        let on_kept_layer = layer_in(o.layer, &ctx.options.keep_layers, ctx.encoding);
+        let prefixed = layer_prefixed(o.layer, &ctx.options.keep_prefixes, ctx.encoding);
+        let on_kept_layer = prefixed || layer_in(o.layer, &ctx.options.keep_layers, ctx.encoding);
         let kept = !o.paper && on_kept_layer;
         if o.paper && on_kept_layer {
             part.paper_space_kept += 1;
@@ -1024,7 +1048,7 @@ fn scan_entities_cursor(
             usize::MAX
         };
         open = Some((idx, follows));
-        let skip_extents = o.paper || layer_in(o.layer, &ctx.options.skip_extents_layers, ctx.encoding);
+        let skip_extents = o.paper || prefixed || layer_in(o.layer, &ctx.options.skip_extents_layers, ctx.encoding);
         if !skip_extents && !matches!(o.kind, b"XLINE" | b"RAY" | b"VIEWPORT") {
             if o.kind == b"INSERT" {
                 let a = insert_transform(&o);

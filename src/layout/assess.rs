@@ -329,7 +329,10 @@ pub fn assess_layout(view: &AssessView<'_>, extents: Option<Rect>, options: &Lay
         let y = yb - 3.5 * th - i as f64 * 1.6 * th;
         items.push(item(Role::Notes, text(Point::new(x0, y), 0.8 * th, line, HAlign::Left, VAlign::Top)));
     }
-    (Additions { items, dim_style }, Placement { force_scale: scale, diagram_at: at, text_height: th })
+    (
+        Additions { items, dim_style, variants: Vec::new() },
+        Placement { force_scale: scale, diagram_at: at, text_height: th },
+    )
 }
 
 #[cfg(test)]

@@ -6,6 +6,7 @@
 //! height proportioned to the span; the writer turns the result into DXF.
 
 pub mod assess;
+pub mod compare;
 mod diagram;
 mod dimension;
 mod form;
@@ -122,5 +123,5 @@ pub fn layout(
     let top = solution.nodes.iter().map(|p| p.y).fold(f64::NEG_INFINITY, f64::max);
     let (diagram, placement) = diagram::diagram_items(structure, solution, taken, top, th, options);
     items.extend(diagram);
-    (Additions { items, dim_style }, placement)
+    (Additions { items, dim_style, variants: Vec::new() }, placement)
 }

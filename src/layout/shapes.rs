@@ -263,6 +263,32 @@ pub struct Additions {
     pub items: Vec<Item>,
     /// The dimension style.
     pub dim_style: DimStyle,
+    /// Runs of items that belong to one design alternative: they go on
+    /// their roles' layers with the alternative's suffix
+    /// (`HANGLINE-PROFILE-SAG-4`).
+    pub variants: Vec<Variant>,
+}
+
+/// A run of [`Additions::items`] drawn on layers of their own.
+#[derive(Clone, Debug, PartialEq)]
+pub struct Variant {
+    /// The items' indices.
+    pub items: std::ops::Range<usize>,
+    /// Appended to each role's layer name after a hyphen: a key of
+    /// [`VARIANT_KEYS`], a hyphen and the value (`SAG-4`, `THRUST-450`).
+    pub suffix: String,
+}
+
+/// The condition keys a variant's suffix starts with; a layer named
+/// `<tool layer>-<key>-<value>` is the tool's (and replaced on every run).
+pub const VARIANT_KEYS: [&str; 8] = ["SAG", "RISE", "THRUST", "MAXFORCE", "LENGTH", "THROUGH", "LEVELAT", "UNSTRESSED"];
+
+impl Additions {
+    /// The suffix of item `index`'s layer, if it belongs to a variant.
+    #[must_use]
+    pub fn suffix(&self, index: usize) -> Option<&str> {
+        self.variants.iter().find(|v| v.items.contains(&index)).map(|v| v.suffix.as_str())
+    }
 }
 
 impl Shape {

@@ -109,7 +109,9 @@ pub fn scan_options<'a>(layers: &ArchLayers, extra: impl Iterator<Item = &'a str
     let extra: Vec<String> = extra.map(String::from).collect();
     let mut keep = vec![layers.intrados.clone(), layers.extrados.clone(), layers.fill.clone(), layers.loads.clone()];
     keep.extend(extra.iter().cloned());
-    ScanOptions { keep_layers: keep, skip_extents_layers: extra, ..ScanOptions::default() }
+    // The layers of design alternatives: a tool layer's name, a hyphen and more.
+    let keep_prefixes = extra.iter().map(|n| format!("{n}-")).collect();
+    ScanOptions { keep_layers: keep, skip_extents_layers: extra, keep_prefixes, ..ScanOptions::default() }
 }
 
 /// Reads an arch from a scanned drawing.

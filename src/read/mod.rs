@@ -208,7 +208,9 @@ pub fn scan_options<'a>(layers: &InputLayers, extra: impl Iterator<Item = &'a st
     let extra: Vec<String> = extra.map(String::from).collect();
     let mut keep = vec![layers.supports.clone(), layers.loads.clone(), layers.deck.clone(), layers.hangers.clone()];
     keep.extend(extra.iter().cloned());
-    ScanOptions { keep_layers: keep, skip_extents_layers: extra, ..ScanOptions::default() }
+    // The layers of design alternatives: a tool layer's name, a hyphen and more.
+    let keep_prefixes = extra.iter().map(|n| format!("{n}-")).collect();
+    ScanOptions { keep_layers: keep, skip_extents_layers: extra, keep_prefixes, ..ScanOptions::default() }
 }
 
 /// The drawing's layers (from its LAYER table) and the entities on them.

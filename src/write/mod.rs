@@ -82,6 +82,17 @@ pub fn check_layer_name(name: &str, release: Release) -> Result<(), String> {
     Ok(())
 }
 
+/// True when `layer` is `base` with a variant's suffix
+/// (`HANGLINE-PROFILE-SAG-4` for `HANGLINE-PROFILE`), ignoring case.
+#[must_use]
+pub fn is_variant_of(base: &str, layer: &str) -> bool {
+    let (b, l) = (base.to_uppercase(), layer.to_uppercase());
+    l.strip_prefix(&b)
+        .and_then(|rest| rest.strip_prefix('-'))
+        .and_then(|rest| rest.split_once('-'))
+        .is_some_and(|(key, value)| !value.is_empty() && crate::layout::VARIANT_KEYS.contains(&key))
+}
+
 /// Why the output could not be written.
 #[derive(Debug, Error)]
 pub enum WriteError {
@@ -195,13 +206,27 @@ pub fn plan(file: &File<'_>, additions: &Additions, layers: &OutputLayers) -> Re
     for name in layers.all() {
         check_layer_name(name, file.release).map_err(WriteError::LayerName)?;
     }
+    let layer_of = |index: usize, role: Role| -> String {
+        match additions.suffix(index) {
+            Some(s) => format!("{}-{s}", layers.get(role)),
+            None => layers.get(role).to_string(),
+        }
+    };
+    for v in &additions.variants {
+        for i in v.items.clone() {
+            if let Some(item) = additions.items.get(i) {
+                check_layer_name(&layer_of(i, item.role), file.release).map_err(WriteError::LayerName)?;
+            }
+        }
+    }
     let mut edits: Vec<Edit> = Vec::new();
     let mut push = |range: Range<usize>, bytes: Vec<u8>| {
         let order = edits.len();
         edits.push(Edit { range, bytes, order });
     };
     let mut summary = Summary::default();
-    let is_tool_layer = |layer: &str| layers.all().any(|n| crate::dxf::names_match(n, layer));
+    let is_tool_layer =
+        |layer: &str| layers.all().any(|n| crate::dxf::names_match(n, layer) || is_variant_of(n, layer));
 
     // The tool's entities from an earlier run, and the blocks their dimensions own.
     let mut old_blocks: HashSet<String> = HashSet::new();
@@ -263,12 +288,21 @@ pub fn plan(file: &File<'_>, additions: &Additions, layers: &OutputLayers) -> Re
         let plot_style =
             table.find("0").and_then(|r| file.pairs_in(&r.span).find(|p| p.code == 390)).and_then(|p| p.handle());
         let mut added = 0;
-        // A layer for each role that draws something.
-        for role in Role::ALL.into_iter().filter(|r| additions.items.iter().any(|i| i.role == *r)) {
-            let name = layers.get(role);
+        // A layer for each role (and variant) that draws something, in the
+        // order of the roles.
+        let mut wanted: Vec<(usize, Role, String)> = Vec::new();
+        for (i, item) in additions.items.iter().enumerate() {
+            let name = layer_of(i, item.role);
+            if !wanted.iter().any(|(_, _, n)| crate::dxf::names_match(n, &name)) {
+                let rank = Role::ALL.iter().position(|r| *r == item.role).unwrap_or(usize::MAX);
+                wanted.push((rank, item.role, name));
+            }
+        }
+        wanted.sort_by_key(|(rank, _, _)| *rank);
+        for (_, role, name) in &wanted {
             if table.find(name).is_none() && !summary.new_layers.iter().any(|n| crate::dxf::names_match(n, name)) {
                 pen.layer_record(table.handle, name, role.colour(), &linetype, plot_style);
-                summary.new_layers.push(name.to_string());
+                summary.new_layers.push(name.clone());
                 added += 1;
             }
         }
@@ -357,14 +391,14 @@ pub fn plan(file: &File<'_>, additions: &Additions, layers: &OutputLayers) -> Re
 
     // Entities.
     let mut dim_index = 0;
-    for item in &additions.items {
+    for (i, item) in additions.items.iter().enumerate() {
         let block = if matches!(item.shape, Shape::Dimension(_)) {
             dim_index += 1;
             block_names.get(dim_index - 1).map(String::as_str)
         } else {
             None
         };
-        pen.shape(&item.shape, model_space, layers.get(item.role), item.colour, block);
+        pen.shape(&item.shape, model_space, &layer_of(i, item.role), item.colour, block);
         summary.added += 1;
     }
     let entities_end = file.entities_end.ok_or_else(|| WriteError::Structure("it has no ENTITIES section".into()))?;
@@ -445,10 +479,21 @@ mod tests {
 0\nSECTION\n2\nTABLES\n0\nTABLE\n2\nLAYER\n70\n1\n0\nLAYER\n5\n10\n2\n0\n70\n0\n62\n7\n6\nCONTINUOUS\n0\nENDTAB\n0\nENDSEC\n\
 0\nSECTION\n2\nENTITIES\n0\nLINE\n5\n2F\n8\nLOADS\n10\n1.0\n20\n0.0\n11\n1.0\n21\n2.0\n0\nENDSEC\n0\nEOF\n";
 
+    #[test]
+    fn variant_layers_are_recognised_by_their_key_and_value() {
+        assert!(is_variant_of("HANGLINE-PROFILE", "hangline-profile-SAG-4_5"));
+        assert!(is_variant_of("HANGLINE-PROFILE", "HANGLINE-PROFILE-LEVELAT--3"));
+        assert!(!is_variant_of("HANGLINE-PROFILE", "HANGLINE-PROFILE"));
+        assert!(!is_variant_of("HANGLINE-PROFILE", "HANGLINE-PROFILE-OLD"));
+        assert!(!is_variant_of("HANGLINE-PROFILE", "HANGLINE-PROFILE-SAG-"));
+        assert!(!is_variant_of("HANGLINE-PROFILE", "HANGLINE-PROFILES-SAG-4"));
+    }
+
     fn additions() -> Additions {
         let line = Shape::Line(Line::new(Point::new(0.0, 0.0), Point::new(1.0, 1.0)));
         Additions {
             items: vec![Item { role: Role::Profile, shape: line, colour: None }],
+            variants: Vec::new(),
             dim_style: DimStyle {
                 text_height: 0.2,
                 arrow: 0.2,

@@ -3,6 +3,7 @@
 
 #![allow(clippy::print_stderr, missing_docs)]
 
+mod alternatives;
 mod assess;
 mod bad;
 mod batch;

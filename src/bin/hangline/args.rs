@@ -48,6 +48,9 @@ The method assumes masonry with no tensile strength, unlimited compressive
 strength and no sliding: an assessment aid, to be checked by a qualified
 engineer under the local codes.";
 
+/// The most design alternatives in one run (each is a set of layers).
+const MAX_ALTERNATIVES: usize = 12;
+
 const INSPECT_EXAMPLES: &str = "\
 Examples:
   hangline inspect bridge.dxf
@@ -547,26 +550,62 @@ impl SolveArgs {
             let p = parse_point(t, "--through")?;
             given.push(Given::Through(p.x, p.y));
         }
-        if let Some(s) = &self.thrust {
-            given.push(Given::Thrust(parse_force(s, "--thrust")?));
-        }
-        if let Some(s) = &self.sag {
-            given.push(Given::Sag(parse_length(s, "--sag")?));
-        }
-        if let Some(s) = &self.rise {
-            given.push(Given::Rise(parse_length(s, "--rise")?));
-        }
-        if let Some(s) = &self.max_force {
-            given.push(Given::MaxForce(parse_force(s, "--max-force")?));
-        }
-        if let Some(s) = &self.level_at {
-            let x: f64 = s.trim().parse().map_err(|_| {
-                anyhow!("--level-at '{s}' is not a number: give the x in drawing units, e.g. --level-at 24")
-            })?;
-            if !x.is_finite() {
-                bail!("--level-at '{s}' must be a finite x");
+        // Each condition may take a list of values (one condition at a
+        // time): one design alternative per value.
+        let mut alternatives: Vec<Given> = Vec::new();
+        let mut listed: Option<&str> = None;
+        let mut take = |flag: &'static str,
+                        value: &Option<String>,
+                        parse: &dyn Fn(&str) -> Result<Given>,
+                        given: &mut Vec<Given>|
+         -> Result<()> {
+            let Some(v) = value else { return Ok(()) };
+            let pieces: Vec<&str> = v.split(',').map(str::trim).collect();
+            if pieces.len() == 1 {
+                given.push(parse(pieces[0])?);
+                return Ok(());
             }
-            given.push(Given::LevelAt(x));
+            if let Some(other) = listed {
+                bail!("{other} and {flag} both give lists; give a list of values for one condition at a time");
+            }
+            listed = Some(flag);
+            for p in pieces {
+                if p.is_empty() {
+                    bail!(
+                        "{flag} '{v}': an empty value in the list; write values separated by commas, e.g. {flag} 4,6,8"
+                    );
+                }
+                alternatives.push(parse(p)?);
+            }
+            Ok(())
+        };
+        take("--thrust", &self.thrust, &|s| Ok(Given::Thrust(parse_force(s, "--thrust")?)), &mut given)?;
+        take("--sag", &self.sag, &|s| Ok(Given::Sag(parse_length(s, "--sag")?)), &mut given)?;
+        take("--rise", &self.rise, &|s| Ok(Given::Rise(parse_length(s, "--rise")?)), &mut given)?;
+        take("--max-force", &self.max_force, &|s| Ok(Given::MaxForce(parse_force(s, "--max-force")?)), &mut given)?;
+        take(
+            "--level-at",
+            &self.level_at,
+            &|s| {
+                let x: f64 = s.trim().parse().map_err(|_| {
+                    anyhow!("--level-at '{s}' is not a number: give the x in drawing units, e.g. --level-at 24")
+                })?;
+                if !x.is_finite() {
+                    bail!("--level-at '{s}' must be a finite x");
+                }
+                Ok(Given::LevelAt(x))
+            },
+            &mut given,
+        )?;
+        take("--length", &self.length, &|s| Ok(Given::Length(parse_length(s, "--length")?)), &mut given)?;
+        take(
+            "--unstressed-length",
+            &self.unstressed_length,
+            &|s| Ok(Given::UnstressedLength(parse_length(s, "--unstressed-length")?)),
+            &mut given,
+        )?;
+        if alternatives.len() > MAX_ALTERNATIVES {
+            bail!("{} alternatives given; give at most {MAX_ALTERNATIVES}", alternatives.len());
         }
         let force_scale = match &self.force_scale {
             Some(s) => Some(parse_force(s, "--force-scale")?),
@@ -576,12 +615,6 @@ impl SolveArgs {
             && !(h > 0.0 && h.is_finite())
         {
             bail!("--text-height must be a positive length in drawing units");
-        }
-        if let Some(s) = &self.length {
-            given.push(Given::Length(parse_length(s, "--length")?));
-        }
-        if let Some(s) = &self.unstressed_length {
-            given.push(Given::UnstressedLength(parse_length(s, "--unstressed-length")?));
         }
         let self_weight = self.self_weight.as_deref().map(parse_self_weight).transpose()?;
         let axial_stiffness =
@@ -599,6 +632,7 @@ impl SolveArgs {
             self_weight,
             axial_stiffness,
             chord_tolerance,
+            alternatives,
         })
     }
 }

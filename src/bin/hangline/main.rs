@@ -143,7 +143,10 @@ pub fn solve_one(input: &Path, output: &Path, report_to: Option<&Path>, job: &Jo
         force,
         |bytes| Ok(pipeline::prepare(bytes, job)?),
         |o: &pipeline::Outcome| {
-            Ok(serde_json::to_value(report(&input_name, &o.reading, &o.carried, &o.solution, Some(&o.placement)))?)
+            Ok(serde_json::to_value(
+                report(&input_name, &o.reading, &o.carried, &o.solution, Some(&o.placement))
+                    .with_alternatives(&o.alternatives),
+            )?)
         },
     )?;
     Ok(Done { outcome, output: output.to_path_buf() })
@@ -351,7 +354,28 @@ fn solve(a: &SolveArgs) -> Result<bool> {
         })
         .collect();
     say(q, &format!("solved  {} with {}", s.form, conds.join(", ")));
-    say(q, &format!("        {}", result_line(&carried.structure, s)));
+    if outcome.alternatives.is_empty() {
+        say(q, &format!("        {}", result_line(&carried.structure, s)));
+    } else {
+        say(
+            q,
+            &format!(
+                "        {} alternatives, each on layers of its own (NAME-<condition>-<value>):",
+                outcome.alternatives.len()
+            ),
+        );
+        for alt in &outcome.alternatives {
+            say(
+                q,
+                &format!(
+                    "        {} ({}): {}",
+                    alt.given.words(),
+                    alt.name,
+                    result_line(&carried.structure, &alt.solution)
+                ),
+            );
+        }
+    }
     for t in &s.towers {
         say(
             q,
