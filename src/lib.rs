@@ -54,6 +54,7 @@ pub mod model;
 pub mod pipeline;
 pub mod read;
 pub mod report;
+pub mod sheet;
 pub mod solve;
 pub mod units;
 pub mod write;

@@ -14,4 +14,5 @@ mod hostile;
 mod outside;
 mod regressions;
 mod roundtrip;
+mod sheet;
 mod util;

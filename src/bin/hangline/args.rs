@@ -139,6 +139,10 @@ pub struct SolveArgs {
     /// report each (NAME-hangline.json).
     #[arg(long, value_name = "FILE.json")]
     pub report: Option<PathBuf>,
+    /// Also write a calculation sheet a checker can follow: Markdown, or
+    /// HTML when the name ends in .html (one drawing only).
+    #[arg(long, value_name = "FILE.md")]
+    pub sheet: Option<PathBuf>,
     /// With several drawings: look into sub-folders too.
     #[arg(long)]
     pub recursive: bool,
@@ -518,6 +522,7 @@ impl SolveArgs {
             jobs: None,
             output: self.output.clone(),
             report: self.report.clone(),
+            sheet: None,
             recursive: false,
             threads: None,
             summary: None,

@@ -233,7 +233,7 @@ fn solve_task(t: &Task, report_dir: Option<&Path>) -> Row {
         let output = t.args.output.clone().unwrap_or_else(|| default_output(&t.input));
         let report =
             t.args.report.clone().or_else(|| report_dir.map(|d| d.join(format!("{}-hangline.json", stem(&t.input)))));
-        solve_one(&t.input, &output, report.as_deref(), &job, t.args.force)
+        solve_one(&t.input, &output, &crate::Files { report: report.clone(), sheet: None }, &job, t.args.force)
     });
     match result {
         Ok(done) => {

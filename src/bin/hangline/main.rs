@@ -21,6 +21,7 @@ use hangline::pipeline::assess::{AssessOutcome, prepare_assess};
 use hangline::pipeline::{self, Job};
 use hangline::report::assess::assess_report;
 use hangline::report::{CAUTION, inspection, report};
+use hangline::sheet::Picture;
 use hangline::write::{Plan, Run};
 
 fn main() -> ExitCode {
@@ -134,49 +135,90 @@ pub struct Done {
 
 /// Solves one drawing and writes its output (and report), each whole or not
 /// at all.
-pub fn solve_one(input: &Path, output: &Path, report_to: Option<&Path>, job: &Job, force: bool) -> Result<Done> {
+pub fn solve_one(input: &Path, output: &Path, files: &Files, job: &Job, force: bool) -> Result<Done> {
     let input_name = input.display().to_string();
-    let outcome = process(
-        input,
-        output,
-        report_to,
-        force,
-        |bytes| Ok(pipeline::prepare(bytes, job)?),
-        |o: &pipeline::Outcome| {
-            Ok(serde_json::to_value(
-                report(&input_name, &o.reading, &o.carried, &o.solution, Some(&o.placement))
-                    .with_alternatives(&o.alternatives),
-            )?)
-        },
-    )?;
+    let report_of = |o: &pipeline::Outcome| {
+        report(&input_name, &o.reading, &o.carried, &o.solution, Some(&o.placement)).with_alternatives(&o.alternatives)
+    };
+    let mut extras: Vec<Extra<'_, pipeline::Outcome>> = Vec::new();
+    if let Some(path) = &files.report {
+        extras.push(Extra { what: "report", path, make: Box::new(|o| json_bytes(&report_of(o))) });
+    }
+    if let Some(path) = &files.sheet {
+        let html = path.extension().is_some_and(|e| e.eq_ignore_ascii_case("html") || e.eq_ignore_ascii_case("htm"));
+        extras.push(Extra {
+            what: "calculation sheet",
+            path,
+            make: Box::new(move |o| {
+                let r = report_of(o);
+                let page = if html {
+                    hangline::sheet::html(&r, Picture::None)
+                } else {
+                    hangline::sheet::markdown(&r, Picture::None)
+                };
+                Ok(page.into_bytes())
+            }),
+        });
+    }
+    let outcome = process(input, output, force, |bytes| Ok(pipeline::prepare(bytes, job)?), extras)?;
     Ok(Done { outcome, output: output.to_path_buf() })
 }
 
+/// The files written besides the drawing.
+#[derive(Clone, Debug, Default)]
+pub struct Files {
+    /// The JSON report.
+    pub report: Option<PathBuf>,
+    /// The calculation sheet (Markdown, or HTML by its extension).
+    pub sheet: Option<PathBuf>,
+}
+
+/// How an extra file's bytes are made from the outcome.
+pub type MakeBytes<'a, T> = Box<dyn Fn(&T) -> Result<Vec<u8>> + 'a>;
+
+/// A file written with the drawing: what it is, where, and its bytes from
+/// the outcome.
+pub struct Extra<'a, T> {
+    /// In words, for messages.
+    pub what: &'static str,
+    /// Where it goes.
+    pub path: &'a Path,
+    /// Its content.
+    pub make: MakeBytes<'a, T>,
+}
+
+fn json_bytes<S: serde::Serialize>(value: &S) -> Result<Vec<u8>> {
+    let mut v = serde_json::to_vec_pretty(value).context("cannot write the report")?;
+    v.push(b'\n');
+    Ok(v)
+}
+
 /// Runs `work` on the input's bytes and writes the output drawing from its
-/// plan (and the report), each to a temporary file renamed into place only
-/// when everything worked.
+/// plan, and the extra files, each to a temporary file renamed into place
+/// only when everything worked.
 fn process<T>(
     input: &Path,
     output: &Path,
-    report_to: Option<&Path>,
     force: bool,
     work: impl FnOnce(&[u8]) -> Result<(T, Plan)>,
-    report: impl FnOnce(&T) -> Result<serde_json::Value>,
+    extras: Vec<Extra<'_, T>>,
 ) -> Result<T> {
-    for (what, p) in [("output", Some(output)), ("report", report_to)] {
-        if let Some(p) = p
-            && p.is_dir()
-        {
-            bail!("the {what} {} is a folder; give a file name", p.display());
-        }
+    if output.is_dir() {
+        bail!("the output {} is a folder; give a file name", output.display());
     }
     if same_file(output, input) && !force {
         bail!("the output {} is the input drawing; give another -o, or --force to replace the input", output.display());
     }
-    if let Some(r) = report_to
-        && (same_file(r, input) || r == output)
-    {
-        bail!("the report {} would overwrite a drawing; give the report another name", r.display());
+    for (k, e) in extras.iter().enumerate() {
+        if e.path.is_dir() {
+            bail!("the {} {} is a folder; give a file name", e.what, e.path.display());
+        }
+        if same_file(e.path, input) || e.path == output {
+            bail!("the {} {} would overwrite a drawing; give it another name", e.what, e.path.display());
+        }
+        if extras[..k].iter().any(|o| o.path == e.path) {
+            bail!("the {} and another output are both {}; give each its own name", e.what, e.path.display());
+        }
     }
     let input_name = input.display().to_string();
     let (input_file, stamp, bytes) = open_input(input)?;
@@ -187,25 +229,22 @@ fn process<T>(
     if file_stamp(&input_file)? != stamp {
         bail!("{input_name} changed while it was being processed; nothing was written: run again");
     }
-    let report_temp = match report_to {
-        Some(path) => {
-            let mut t = temp_beside(path)?;
-            let r = report(&outcome)?;
-            serde_json::to_writer_pretty(t.as_file_mut(), &r).context("cannot write the report")?;
-            t.as_file_mut().write_all(b"\n").context("cannot write the report")?;
-            Some((t, path))
-        }
-        None => None,
-    };
+    let mut temps = Vec::new();
+    for e in &extras {
+        let mut t = temp_beside(e.path)?;
+        let bytes = (e.make)(&outcome)?;
+        t.as_file_mut().write_all(&bytes).with_context(|| format!("cannot write the {}", e.what))?;
+        temps.push((t, e.path));
+    }
     temp.persist(output).with_context(|| format!("cannot write {}", output.display()))?;
-    if let Some((t, path)) = report_temp {
+    for (t, path) in temps {
         t.persist(path).with_context(|| format!("cannot write {}", path.display()))?;
     }
     Ok(outcome)
 }
 
 /// The line saying what was written.
-fn wrote_line(output: &Path, sum: &hangline::write::Summary, report: Option<&Path>) -> String {
+fn wrote_line(output: &Path, sum: &hangline::write::Summary, also: &[Option<&Path>]) -> String {
     let mut wrote = format!(
         "wrote   {} ({} entities added{}{})",
         output.display(),
@@ -213,7 +252,7 @@ fn wrote_line(output: &Path, sum: &hangline::write::Summary, report: Option<&Pat
         if sum.new_layers.is_empty() { String::new() } else { format!(", {} layers", sum.new_layers.len()) },
         if sum.replaced > 0 { format!(", {} from an earlier run replaced", sum.replaced) } else { String::new() }
     );
-    if let Some(path) = report {
+    for path in also.iter().flatten() {
         wrote.push_str(&format!(" and {}", path.display()));
     }
     wrote
@@ -225,14 +264,17 @@ fn assess(a: &AssessArgs) -> Result<bool> {
     let input = &a.input;
     let output = a.output.clone().unwrap_or_else(|| default_output(input));
     let input_name = input.display().to_string();
-    let outcome = process(
-        input,
-        &output,
-        a.report.as_deref(),
-        a.force,
-        |bytes| Ok(prepare_assess(bytes, &job)?),
-        |o: &AssessOutcome| Ok(serde_json::to_value(assess_report(&input_name, &o.reading, &o.assessment, &job))?),
-    )?;
+    let mut extras: Vec<Extra<'_, AssessOutcome>> = Vec::new();
+    if let Some(path) = &a.report {
+        extras.push(Extra {
+            what: "report",
+            path,
+            make: Box::new(|o: &AssessOutcome| {
+                json_bytes(&assess_report(&input_name, &o.reading, &o.assessment, &job))
+            }),
+        });
+    }
+    let outcome = process(input, &output, a.force, |bytes| Ok(prepare_assess(bytes, &job)?), extras)?;
     let q = a.quiet;
     let r = &outcome.reading;
     let s = &outcome.assessment;
@@ -288,7 +330,7 @@ fn assess(a: &AssessArgs) -> Result<bool> {
             ),
         );
     }
-    say(q, &wrote_line(&output, &outcome.summary, a.report.as_deref()));
+    say(q, &wrote_line(&output, &outcome.summary, &[a.report.as_deref()]));
     say(q, &format!("caution {ASSESS_CAUTION}"));
     Ok(true)
 }
@@ -297,12 +339,16 @@ fn assess(a: &AssessArgs) -> Result<bool> {
 /// whether everything asked for was solved.
 fn solve(a: &SolveArgs) -> Result<bool> {
     if batch::is_batch(a) {
+        if a.sheet.is_some() {
+            bail!("--sheet is for one drawing at a time; give one INPUT (or run the drawings one by one)");
+        }
         return batch::run(a);
     }
     let input = &a.input[0];
     let job = a.job()?;
     let output = a.output.clone().unwrap_or_else(|| default_output(input));
-    let done = solve_one(input, &output, a.report.as_deref(), &job, a.force)?;
+    let files = Files { report: a.report.clone(), sheet: a.sheet.clone() };
+    let done = solve_one(input, &output, &files, &job, a.force)?;
     let input_name = input.display().to_string();
     let outcome = &done.outcome;
     let r = &outcome.reading;
@@ -388,7 +434,7 @@ fn solve(a: &SolveArgs) -> Result<bool> {
             ),
         );
     }
-    say(q, &wrote_line(&output, &outcome.summary, a.report.as_deref()));
+    say(q, &wrote_line(&output, &outcome.summary, &[a.report.as_deref(), a.sheet.as_deref()]));
     say(q, &format!("caution {CAUTION}"));
     Ok(true)
 }
