@@ -11,7 +11,7 @@ use kurbo::Point;
 use crate::carry::{Carried, carry};
 use crate::dxf::File;
 use crate::error::Error;
-use crate::layout::{LayoutOptions, Placement, layout};
+use crate::layout::{LayoutOptions, Placement, layout_with_notes};
 use crate::model::ModelError;
 use crate::read::{ReadOptions, Reading, read, scan_options};
 use crate::solve::{Condition, Form, Solution, SolveOptions, solve_with};
@@ -91,6 +91,8 @@ pub struct Job {
     pub axial_stiffness: Option<ForceValue>,
     /// Chord tolerance of the drawn profile for continuous loads.
     pub chord_tolerance: Option<LengthValue>,
+    /// Member sizing (material and safety factors), if asked for.
+    pub sizing: Option<crate::sizing::Spec>,
 }
 
 /// What came of a job.
@@ -106,6 +108,8 @@ pub struct Outcome {
     pub placement: Placement,
     /// What the writer did.
     pub summary: Summary,
+    /// The members' sizes, if asked for.
+    pub sizing: Option<crate::sizing::Sizing>,
 }
 
 /// The solver's options in the model's units.
@@ -205,10 +209,30 @@ pub fn prepare(bytes: &[u8], job: &Job) -> Result<(Outcome, Plan), Error> {
         let unit = reading.structure.units().force;
         layout_options.force_scale = Some(f.value * f.unit.map_or(1.0, |u| u.factor_to(unit)));
     }
+    let sizing = job.sizing.as_ref().map(|spec| size_members(spec, &carried, &solution)).transpose()?;
+    let notes = sizing.as_ref().map(|s| crate::sizing::summary_lines(s, units.force)).unwrap_or_default();
     let (additions, placement) =
-        layout(&carried.structure, &reading.structure, &solution, reading.extents, &layout_options);
+        layout_with_notes(&carried.structure, &reading.structure, &solution, reading.extents, &layout_options, &notes);
     let (plan, summary) = plan(&file, &additions, &job.layers)?;
-    Ok((Outcome { reading, carried, solution, placement, summary }, plan))
+    Ok((Outcome { reading, carried, solution, placement, summary, sizing }, plan))
+}
+
+/// Sizes the members of `solution` (segments named in Bow's notation, as in
+/// the report), for the largest force along the profile.
+pub fn size_members(
+    spec: &crate::sizing::Spec,
+    carried: &Carried,
+    solution: &Solution,
+) -> Result<crate::sizing::Sizing, Error> {
+    let pole = carried.structure.loads().len() + 1;
+    let members: Vec<crate::sizing::Member> = solution
+        .segments
+        .iter()
+        .enumerate()
+        .map(|(k, s)| crate::sizing::Member { name: crate::layout::nice::member_name(k, pole), force: s.force })
+        .collect();
+    let largest = solution.peak.force.max(solution.max_force());
+    Ok(crate::sizing::size(spec, solution.form, &members, largest, carried.structure.units().force)?)
 }
 
 #[cfg(test)]
@@ -244,6 +268,7 @@ mod tests {
             self_weight: None,
             axial_stiffness: None,
             chord_tolerance: None,
+            sizing: None,
         }
     }
 

@@ -20,7 +20,7 @@ use hangline::layout::result_line;
 use hangline::pipeline::assess::{AssessOutcome, prepare_assess};
 use hangline::pipeline::{self, Job};
 use hangline::report::assess::assess_report;
-use hangline::report::{CAUTION, inspection, report};
+use hangline::report::{CAUTION, inspection, outcome_report};
 use hangline::write::{Plan, Run};
 
 fn main() -> ExitCode {
@@ -142,9 +142,7 @@ pub fn solve_one(input: &Path, output: &Path, report_to: Option<&Path>, job: &Jo
         report_to,
         force,
         |bytes| Ok(pipeline::prepare(bytes, job)?),
-        |o: &pipeline::Outcome| {
-            Ok(serde_json::to_value(report(&input_name, &o.reading, &o.carried, &o.solution, Some(&o.placement)))?)
-        },
+        |o: &pipeline::Outcome| Ok(serde_json::to_value(outcome_report(&input_name, o))?),
     )?;
     Ok(Done { outcome, output: output.to_path_buf() })
 }
@@ -363,6 +361,14 @@ fn solve(a: &SolveArgs) -> Result<bool> {
                 u.length
             ),
         );
+    }
+    if let Some(sz) = &outcome.sizing {
+        for w in &sz.warnings {
+            warn(w);
+        }
+        for (i, line) in hangline::sizing::summary_lines(sz, u.force).iter().enumerate() {
+            say(q, &format!("{}{line}", if i == 0 { "sized   " } else { "        " }));
+        }
     }
     say(q, &wrote_line(&output, &outcome.summary, a.report.as_deref()));
     say(q, &format!("caution {CAUTION}"));
