@@ -35,6 +35,9 @@ pub enum Error {
     /// A thrust-line computation failed.
     #[error(transparent)]
     Thrust(#[from] crate::arch::thrust::ThrustError),
+    /// The members cannot be sized as asked.
+    #[error(transparent)]
+    Sizing(#[from] crate::sizing::SizingError),
     /// The output could not be written.
     #[error(transparent)]
     Write(#[from] WriteError),

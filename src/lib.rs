@@ -16,6 +16,8 @@
 //!   annotations, dimensions, Bow's notation — as plain shapes.
 //! * [`write`] splices those shapes into a copy of the input's bytes, keeping
 //!   every byte of the user's drawing.
+//! * [`sizing`] sizes the members for the forces found, under the user's
+//!   safety factors (indicative: the code in force governs).
 //! * [`report`] is the machine-readable summary.
 //! * [`pipeline`] runs the stages in order on one drawing's bytes.
 //!
@@ -37,6 +39,7 @@
 //!     axial_stiffness: None,
 //!     chord_tolerance: None,
 //!     alternatives: Vec::new(),
+//!     sizing: None,
 //! };
 //! let mut output = Vec::new();
 //! let outcome = run(&drawing, &job, &mut output)?;
@@ -55,6 +58,7 @@ pub mod pipeline;
 pub mod read;
 pub mod report;
 pub mod sheet;
+pub mod sizing;
 pub mod solve;
 pub mod units;
 pub mod write;

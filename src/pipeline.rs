@@ -11,7 +11,7 @@ use kurbo::Point;
 use crate::carry::{Carried, carry};
 use crate::dxf::File;
 use crate::error::Error;
-use crate::layout::{Additions, LayoutOptions, Placement, Role, Shape, Variant, compare, layout};
+use crate::layout::{Additions, LayoutOptions, Placement, Role, Shape, Variant, compare, layout_with_notes};
 use crate::model::ModelError;
 use crate::read::{ReadOptions, Reading, read, scan_options};
 use crate::solve::{Condition, Form, Solution, SolveOptions, solve_with};
@@ -94,6 +94,8 @@ pub struct Job {
     /// Design alternatives: one more condition each (the values of the one
     /// condition given as a list); empty for a single solution.
     pub alternatives: Vec<Given>,
+    /// Member sizing (material and safety factors), if asked for.
+    pub sizing: Option<crate::sizing::Spec>,
 }
 
 /// What came of a job.
@@ -112,6 +114,8 @@ pub struct Outcome {
     /// With alternatives: each one's name and funicular (the first is
     /// `solution`).
     pub alternatives: Vec<Alternative>,
+    /// The members' sizes, if asked for (of the first alternative).
+    pub sizing: Option<crate::sizing::Sizing>,
 }
 
 /// One design alternative's result.
@@ -265,10 +269,18 @@ pub fn prepare(bytes: &[u8], job: &Job) -> Result<(Outcome, Plan), Error> {
         let conditions = conditions(&job.given, job.form, units)?;
         let mut solution = solve_with(&carried.structure, job.form, &conditions, &options)?;
         solution.warnings.extend(sanity(&reading, &conditions));
-        let (additions, placement) =
-            layout(&carried.structure, &reading.structure, &solution, reading.extents, &layout_options);
+        let sizing = job.sizing.as_ref().map(|spec| size_members(spec, &carried, &solution)).transpose()?;
+        let notes = sizing.as_ref().map(|s| crate::sizing::summary_lines(s, units.force)).unwrap_or_default();
+        let (additions, placement) = layout_with_notes(
+            &carried.structure,
+            &reading.structure,
+            &solution,
+            reading.extents,
+            &layout_options,
+            &notes,
+        );
         let (plan, summary) = plan(&file, &additions, &job.layers)?;
-        return Ok((Outcome { reading, carried, solution, placement, summary, alternatives: Vec::new() }, plan));
+        return Ok((Outcome { reading, carried, solution, placement, summary, alternatives: Vec::new(), sizing }, plan));
     }
 
     // Alternatives: each solved on its own, then drawn on its own layers
@@ -286,7 +298,7 @@ pub fn prepare(bytes: &[u8], job: &Job) -> Result<(Outcome, Plan), Error> {
         alternatives.push(Alternative { name, given: *given, solution });
     }
     let first = |o: &LayoutOptions, a: &Alternative| {
-        layout(&carried.structure, &reading.structure, &a.solution, reading.extents, o)
+        layout_with_notes(&carried.structure, &reading.structure, &a.solution, reading.extents, o, &[])
     };
     // The coarsest scale fits every pole; the first alternative's diagram
     // place with it is everyone's.
@@ -327,7 +339,26 @@ pub fn prepare(bytes: &[u8], job: &Job) -> Result<(Outcome, Plan), Error> {
     additions.items.extend(compare::comparison_items(&carried.structure, &rows, anchor, placement.text_height));
     let (plan, summary) = plan(&file, &additions, &job.layers)?;
     let solution = alternatives[0].solution.clone();
-    Ok((Outcome { reading, carried, solution, placement, summary, alternatives }, plan))
+    let sizing = job.sizing.as_ref().map(|spec| size_members(spec, &carried, &solution)).transpose()?;
+    Ok((Outcome { reading, carried, solution, placement, summary, alternatives, sizing }, plan))
+}
+
+/// Sizes the members of `solution` (segments named in Bow's notation, as in
+/// the report), for the largest force along the profile.
+pub fn size_members(
+    spec: &crate::sizing::Spec,
+    carried: &Carried,
+    solution: &Solution,
+) -> Result<crate::sizing::Sizing, Error> {
+    let pole = carried.structure.loads().len() + 1;
+    let members: Vec<crate::sizing::Member> = solution
+        .segments
+        .iter()
+        .enumerate()
+        .map(|(k, s)| crate::sizing::Member { name: crate::layout::nice::member_name(k, pole), force: s.force })
+        .collect();
+    let largest = solution.peak.force.max(solution.max_force());
+    Ok(crate::sizing::size(spec, solution.form, &members, largest, carried.structure.units().force)?)
 }
 
 #[cfg(test)]
@@ -364,6 +395,7 @@ mod tests {
             axial_stiffness: None,
             chord_tolerance: None,
             alternatives: Vec::new(),
+            sizing: None,
         }
     }
 

@@ -15,7 +15,10 @@
 //!
 //! Besides: `span`, `length` (of the profile), `max_force`, `sag` (or
 //! `rise`), `towers`, `clearance`, `loads` as read, `force_diagram`,
-//! `checks`, `warnings` and the `caution`.
+//! `checks`, `warnings` and the `caution`; with `--strength` or
+//! `--catalogue`, `sizing` (see [`crate::sizing::Sizing`]: `format`,
+//! `factors`, `material`, `governing`, `size`, `resistance`, `utilisation`,
+//! `overloaded`, `segments`, `warnings`, `caution`).
 
 pub mod assess;
 
@@ -344,6 +347,17 @@ pub struct Report {
     /// Design alternatives (a condition given as a list): one row each.
     #[serde(skip_serializing_if = "Vec::is_empty")]
     pub alternatives: Vec<AlternativeOut>,
+    /// The members' sizes, when asked for (see [`crate::sizing`]).
+    #[serde(skip_serializing_if = "Option::is_none")]
+    pub sizing: Option<crate::sizing::Sizing>,
+}
+
+/// Builds the report of a whole job, with the sizing when there is one.
+#[must_use]
+pub fn outcome_report(input: &str, outcome: &crate::pipeline::Outcome) -> Report {
+    let mut r = report(input, &outcome.reading, &outcome.carried, &outcome.solution, Some(&outcome.placement));
+    r.sizing.clone_from(&outcome.sizing);
+    r.with_alternatives(&outcome.alternatives)
 }
 
 /// Builds the report.
@@ -447,6 +461,7 @@ pub fn report(
         force_diagram: placement.map(|p| DiagramOut { scale: p.force_scale, at: p.diagram_at.into() }),
         checks: solution.checks,
         warnings,
+        sizing: None,
     }
 }
 

@@ -171,6 +171,16 @@ pub fn markdown(r: &Report, picture: Picture<'_>) -> String {
         s.push_str("\nThe tables above describe the first alternative.\n");
     }
 
+    if let Some(sz) = &r.sizing {
+        s.push_str("\n### Member sizing\n\n");
+        for line in crate::sizing::summary_lines(sz, r.units.force) {
+            let _ = writeln!(s, "- {line}");
+        }
+        for w in &sz.warnings {
+            let _ = writeln!(s, "- Warning: {w}");
+        }
+    }
+
     s.push_str("\n## 5. Checks\n\n");
     let _ = writeln!(s, "- Equilibrium at every node: largest imbalance {} of the total load", n(r.checks.equilibrium));
     if let Some(c) = r.checks.closed_form {
@@ -239,6 +249,7 @@ mod tests {
             axial_stiffness: None,
             chord_tolerance: None,
             alternatives: Vec::new(),
+            sizing: None,
         };
         let mut out = Vec::new();
         let o = run(input.as_bytes(), &job, &mut out).unwrap();

@@ -225,6 +225,78 @@ impl FromStr for ForceUnit {
     }
 }
 
+/// A unit of stress (strength), for member sizing.
+#[derive(Clone, Copy, Debug, PartialEq, Eq, Hash, Serialize)]
+pub enum StressUnit {
+    /// Megapascal, the same as newton per square millimetre.
+    #[serde(rename = "MPa")]
+    Megapascal,
+    /// Gigapascal.
+    #[serde(rename = "GPa")]
+    Gigapascal,
+    /// Pound-force per square inch.
+    #[serde(rename = "psi")]
+    Psi,
+    /// Kip per square inch (1000 psi).
+    #[serde(rename = "ksi")]
+    Ksi,
+}
+
+impl StressUnit {
+    /// One of this unit in megapascals (N/mm²).
+    ///
+    /// 1 psi = 1 lbf / (0.0254 m)² = 4.448 221 615 260 5 N / 645.16 mm²
+    /// = 0.006 894 757 293 168 361 MPa, exact by the definitions of the
+    /// pound-force (NIST SP 811, 2008, appendix B) and the inch.
+    #[must_use]
+    pub fn megapascals(self) -> f64 {
+        match self {
+            StressUnit::Megapascal => 1.0,
+            StressUnit::Gigapascal => 1.0e3,
+            StressUnit::Psi => 4.448_221_615_260_5 / 645.16,
+            StressUnit::Ksi => 4_448.221_615_260_5 / 645.16,
+        }
+    }
+
+    /// The symbol used in reports and on drawings.
+    #[must_use]
+    pub fn symbol(self) -> &'static str {
+        match self {
+            StressUnit::Megapascal => "MPa",
+            StressUnit::Gigapascal => "GPa",
+            StressUnit::Psi => "psi",
+            StressUnit::Ksi => "ksi",
+        }
+    }
+}
+
+impl fmt::Display for StressUnit {
+    fn fmt(&self, f: &mut fmt::Formatter<'_>) -> fmt::Result {
+        f.write_str(self.symbol())
+    }
+}
+
+impl FromStr for StressUnit {
+    type Err = String;
+
+    /// `MPa`, `N/mm2` (or `N/mm²`), `GPa`, `psi`, `ksi`. The case of `MPa`
+    /// and `GPa` must be kept (a small m would be milli); `psi` and `ksi`
+    /// may be written in any case.
+    fn from_str(s: &str) -> Result<Self, Self::Err> {
+        let t = s.trim();
+        let unit = match t {
+            "MPa" | "N/mm2" | "N/mm²" | "N/mm^2" => StressUnit::Megapascal,
+            "GPa" => StressUnit::Gigapascal,
+            _ => match t.to_ascii_lowercase().as_str() {
+                "psi" => StressUnit::Psi,
+                "ksi" => StressUnit::Ksi,
+                _ => return Err(format!("'{t}' is not a unit of stress; use one of MPa, N/mm2, GPa, psi, ksi")),
+            },
+        };
+        Ok(unit)
+    }
+}
+
 /// The one length unit and the one force unit every model quantity is in.
 #[derive(Clone, Copy, Debug, PartialEq, Eq, Serialize)]
 pub struct Units {
@@ -259,6 +331,17 @@ mod tests {
         assert_eq!(LengthUnit::from_insunits(4), Some(LengthUnit::Millimetre));
         assert_eq!(LengthUnit::from_insunits(6), Some(LengthUnit::Metre));
         assert_eq!(LengthUnit::from_insunits(0), None);
+    }
+
+    #[test]
+    fn stress_units() {
+        // 1 ksi = 1000 lbf/in² = 6.894 757 MPa (NIST SP 811, 2008, appendix
+        // B.9 lists 1 kip/in² = 6.894 757 E+06 Pa).
+        assert!((StressUnit::Ksi.megapascals() - 6.894_757).abs() < 1e-6);
+        assert!((StressUnit::Psi.megapascals() * 1000.0 - StressUnit::Ksi.megapascals()).abs() < 1e-12);
+        assert_eq!("N/mm2".parse::<StressUnit>(), Ok(StressUnit::Megapascal));
+        assert_eq!("KSI".parse::<StressUnit>(), Ok(StressUnit::Ksi));
+        assert!("mpa".parse::<StressUnit>().is_err());
     }
 
     #[test]

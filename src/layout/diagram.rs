@@ -68,6 +68,7 @@ pub(super) fn diagram_items(
     top: f64,
     th: f64,
     options: &LayoutOptions,
+    extra: &[String],
 ) -> (Vec<Item>, Placement) {
     let units = structure.units();
     let n = structure.loads().len();
@@ -167,12 +168,13 @@ pub(super) fn diagram_items(
         Form::Cable => "CABLE (pure tension)",
         Form::Arch => "ARCH (pure compression)",
     };
-    let notes = [
+    let mut notes = vec![
         format!("hangline: funicular {form}, {} loads", n),
         super::result_line(structure, s),
         extra_line(structure, s),
-        CAUTION.to_string(),
     ];
+    notes.extend(extra.iter().cloned());
+    notes.push(CAUTION.to_string());
     for (i, line) in notes.into_iter().enumerate() {
         let y = yb - 3.5 * th - i as f64 * 1.6 * th;
         items.push(item(Role::Notes, text(Point::new(x0, y), 0.8 * th, line, HAlign::Left, VAlign::Top)));

@@ -103,6 +103,20 @@ pub fn layout(
     extents: Option<Rect>,
     options: &LayoutOptions,
 ) -> (Additions, Placement) {
+    layout_with_notes(structure, drawn, solution, extents, options, &[])
+}
+
+/// [`layout`], with `notes` (e.g. the members' sizing) written under the
+/// force diagram's summary, before the caution.
+#[must_use]
+pub fn layout_with_notes(
+    structure: &Structure,
+    drawn: &Structure,
+    solution: &Solution,
+    extents: Option<Rect>,
+    options: &LayoutOptions,
+    notes: &[String],
+) -> (Additions, Placement) {
     let th = options.text_height.unwrap_or_else(|| text_height_for(structure.span()));
     let units = structure.units();
     let dim_style = DimStyle {
@@ -121,7 +135,7 @@ pub fn layout(
         }
     }
     let top = solution.nodes.iter().map(|p| p.y).fold(f64::NEG_INFINITY, f64::max);
-    let (diagram, placement) = diagram::diagram_items(structure, solution, taken, top, th, options);
+    let (diagram, placement) = diagram::diagram_items(structure, solution, taken, top, th, options, notes);
     items.extend(diagram);
     (Additions { items, dim_style, variants: Vec::new() }, placement)
 }

@@ -15,4 +15,5 @@ mod outside;
 mod regressions;
 mod roundtrip;
 mod sheet;
+mod sizing;
 mod util;

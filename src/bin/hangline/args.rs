@@ -14,6 +14,7 @@ use hangline::pipeline::{ForceValue, Given, IntensityValue, Job, LengthValue};
 use hangline::read::arch::{ArchLayers, ArchReadOptions};
 use hangline::read::label::{parse_intensity, parse_quantity_force, parse_quantity_length};
 use hangline::read::{InputLayers, ReadOptions};
+use hangline::sizing::{Catalogue, Material, Safety, Spec, Strength};
 use hangline::solve::Form;
 use hangline::units::{ForceUnit, LengthUnit};
 use hangline::write::OutputLayers;
@@ -207,6 +208,29 @@ pub struct SolveArgs {
     /// Text height for annotations, drawing units (default: from the span).
     #[arg(long, value_name = "LENGTH", allow_hyphen_values = true)]
     pub text_height: Option<f64>,
+    /// Size the members by area from a characteristic strength: the
+    /// breaking strength of wire or strand, or the yield strength of a bar
+    /// or an arch section, e.g. "1860 MPa" or "270 ksi". Needs your code's
+    /// factors. Indicative only: the code in force governs.
+    #[arg(long, value_name = "STRESS", allow_hyphen_values = true, help_heading = "Sizing the members")]
+    pub strength: Option<String>,
+    /// Size the cable from your CSV catalogue of sizes and their minimum
+    /// breaking forces (columns: name, breaking_force_kN, optional area_mm2,
+    /// diameter_mm, mass_kg_per_m). Needs your code's factors.
+    #[arg(long, value_name = "FILE.csv", help_heading = "Sizing the members")]
+    pub catalogue: Option<PathBuf>,
+    /// Partial factor on the forces found (γ_F), e.g. 1.35; with
+    /// --resistance-factor.
+    #[arg(long, value_name = "FACTOR", allow_hyphen_values = true, help_heading = "Sizing the members")]
+    pub action_factor: Option<String>,
+    /// Partial factor dividing the characteristic resistance (γ_M; for
+    /// tension components to EN 1993-1-11, 1.5·γ_R); with --action-factor.
+    #[arg(long, value_name = "FACTOR", allow_hyphen_values = true, help_heading = "Sizing the members")]
+    pub resistance_factor: Option<String>,
+    /// A global factor of safety instead of partial factors: breaking
+    /// force (or strength × area) ≥ this × the force found, e.g. 2.5.
+    #[arg(long, value_name = "FACTOR", allow_hyphen_values = true, help_heading = "Sizing the members")]
+    pub safety_factor: Option<String>,
     /// Allow the output to replace the input file.
     #[arg(long)]
     pub force: bool,
@@ -216,6 +240,16 @@ pub struct SolveArgs {
     /// Reading options.
     #[command(flatten)]
     pub read: ReadArgs,
+}
+
+/// Reads a safety factor given on the command line.
+fn parse_factor(s: &str, flag: &str) -> Result<f64> {
+    let v: f64 =
+        s.trim().parse().map_err(|_| anyhow!("{flag} '{s}' is not a number; give the factor, e.g. {flag} 1.35"))?;
+    if !(v > 0.0 && v <= 100.0) {
+        bail!("{flag} '{s}' must be a positive number of at most 100");
+    }
+    Ok(v)
 }
 
 /// `hangline assess`.
@@ -541,10 +575,71 @@ impl SolveArgs {
             force_scale: pick(&self.force_scale, &defaults.force_scale),
             diagram_at: pick(&self.diagram_at, &defaults.diagram_at),
             text_height: self.text_height.or(defaults.text_height),
+            // A line's own material or factors replace the command line's
+            // whole, so that the two never mix into a contradiction.
+            strength: if self.has_material() { self.strength.clone() } else { defaults.strength.clone() },
+            catalogue: if self.has_material() { self.catalogue.clone() } else { defaults.catalogue.clone() },
+            action_factor: if self.has_factors() { self.action_factor.clone() } else { defaults.action_factor.clone() },
+            resistance_factor: if self.has_factors() {
+                self.resistance_factor.clone()
+            } else {
+                defaults.resistance_factor.clone()
+            },
+            safety_factor: if self.has_factors() { self.safety_factor.clone() } else { defaults.safety_factor.clone() },
             force: self.force || defaults.force,
             quiet: true,
             read: self.read.or(&defaults.read),
         }
+    }
+
+    fn has_material(&self) -> bool {
+        self.strength.is_some() || self.catalogue.is_some()
+    }
+
+    fn has_factors(&self) -> bool {
+        self.action_factor.is_some() || self.resistance_factor.is_some() || self.safety_factor.is_some()
+    }
+
+    /// Checks the sizing options (reading the catalogue, if one is given).
+    pub fn sizing(&self) -> Result<Option<Spec>> {
+        if !self.has_material() {
+            if self.has_factors() {
+                bail!(
+                    "safety factors were given but nothing to size: add --strength (e.g. \"1860 MPa\") or --catalogue FILE.csv"
+                );
+            }
+            return Ok(None);
+        }
+        let material = match (&self.strength, &self.catalogue) {
+            (Some(_), Some(_)) => bail!("--strength and --catalogue both give the material; keep one"),
+            (Some(s), None) => Material::Strength(Strength::parse(s).map_err(|e| anyhow!("--strength: {e}"))?),
+            (None, Some(path)) => {
+                let text = std::fs::read_to_string(path)
+                    .map_err(|e| anyhow!("cannot read the catalogue {}: {e}", path.display()))?;
+                Material::Catalogue(Catalogue::parse(&text, &path.display().to_string())?)
+            }
+            (None, None) => return Ok(None),
+        };
+        let safety = match (&self.action_factor, &self.resistance_factor, &self.safety_factor) {
+            (None, None, Some(sf)) => Safety::Global { factor: parse_factor(sf, "--safety-factor")? },
+            (Some(a), Some(r), None) => Safety::Partial {
+                action: parse_factor(a, "--action-factor")?,
+                resistance: parse_factor(r, "--resistance-factor")?,
+            },
+            (_, _, Some(_)) => bail!(
+                "--safety-factor is a global factor and cannot go with --action-factor or --resistance-factor; give either the global factor or the two partial factors"
+            ),
+            (None, None, None) => bail!(
+                "sizing needs your code's factors: --action-factor and --resistance-factor (partial factors), or --safety-factor (a global factor)"
+            ),
+            (Some(_), None, None) => {
+                bail!("--action-factor needs --resistance-factor as well (e.g. 1.35 for strands to EN 1993-1-11)")
+            }
+            (None, Some(_), None) => {
+                bail!("--resistance-factor needs --action-factor as well (e.g. 1.35 on permanent actions to EN 1990)")
+            }
+        };
+        Ok(Some(Spec { material, safety }))
     }
 
     /// Checks everything into a job.
@@ -638,6 +733,7 @@ impl SolveArgs {
             axial_stiffness,
             chord_tolerance,
             alternatives,
+            sizing: self.sizing()?,
         })
     }
 }

@@ -139,6 +139,9 @@ fn job_file(path: &Path, defaults: &SolveArgs) -> Result<Vec<Task>> {
         args.input = vec![input.clone()];
         args.output = line_args.output.as_ref().map(|o| base.join(o));
         args.report = line_args.report.as_ref().map(|r| base.join(r));
+        if let Some(c) = &line_args.catalogue {
+            args.catalogue = Some(base.join(c));
+        }
         tasks.push(Task { input, args });
     }
     if tasks.is_empty() {

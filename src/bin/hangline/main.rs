@@ -20,7 +20,7 @@ use hangline::layout::result_line;
 use hangline::pipeline::assess::{AssessOutcome, prepare_assess};
 use hangline::pipeline::{self, Job};
 use hangline::report::assess::assess_report;
-use hangline::report::{CAUTION, inspection, report};
+use hangline::report::{CAUTION, inspection, outcome_report};
 use hangline::sheet::Picture;
 use hangline::write::{Plan, Run};
 
@@ -137,9 +137,7 @@ pub struct Done {
 /// at all.
 pub fn solve_one(input: &Path, output: &Path, files: &Files, job: &Job, force: bool) -> Result<Done> {
     let input_name = input.display().to_string();
-    let report_of = |o: &pipeline::Outcome| {
-        report(&input_name, &o.reading, &o.carried, &o.solution, Some(&o.placement)).with_alternatives(&o.alternatives)
-    };
+    let report_of = |o: &pipeline::Outcome| outcome_report(&input_name, o);
     let mut extras: Vec<Extra<'_, pipeline::Outcome>> = Vec::new();
     if let Some(path) = &files.report {
         extras.push(Extra { what: "report", path, make: Box::new(|o| json_bytes(&report_of(o))) });
@@ -433,6 +431,14 @@ fn solve(a: &SolveArgs) -> Result<bool> {
                 u.length
             ),
         );
+    }
+    if let Some(sz) = &outcome.sizing {
+        for w in &sz.warnings {
+            warn(w);
+        }
+        for (i, line) in hangline::sizing::summary_lines(sz, u.force).iter().enumerate() {
+            say(q, &format!("{}{line}", if i == 0 { "sized   " } else { "        " }));
+        }
     }
     say(q, &wrote_line(&output, &outcome.summary, &[a.report.as_deref(), a.sheet.as_deref()]));
     say(q, &format!("caution {CAUTION}"));
