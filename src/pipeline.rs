@@ -280,7 +280,10 @@ pub fn prepare(bytes: &[u8], job: &Job) -> Result<(Outcome, Plan), Error> {
             &notes,
         );
         let (plan, summary) = plan(&file, &additions, &job.layers)?;
-        return Ok((Outcome { reading, carried, solution, placement, summary, alternatives: Vec::new(), sizing }, plan));
+        return Ok((
+            Outcome { reading, carried, solution, placement, summary, alternatives: Vec::new(), sizing },
+            plan,
+        ));
     }
 
     // Alternatives: each solved on its own, then drawn on its own layers
