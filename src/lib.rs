@@ -18,6 +18,7 @@
 //!   every byte of the user's drawing.
 //! * [`report`] is the machine-readable summary.
 //! * [`pipeline`] runs the stages in order on one drawing's bytes.
+//! * [`preview`] draws the input's relevant layers and the additions as SVG.
 //!
 //! ```
 //! use hangline::pipeline::{Given, Job, run};
@@ -51,6 +52,7 @@ pub mod error;
 pub mod layout;
 pub mod model;
 pub mod pipeline;
+pub mod preview;
 pub mod read;
 pub mod report;
 pub mod solve;

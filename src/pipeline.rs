@@ -11,7 +11,7 @@ use kurbo::Point;
 use crate::carry::{Carried, carry};
 use crate::dxf::File;
 use crate::error::Error;
-use crate::layout::{LayoutOptions, Placement, layout};
+use crate::layout::{Additions, LayoutOptions, Placement, layout};
 use crate::model::ModelError;
 use crate::read::{ReadOptions, Reading, read, scan_options};
 use crate::solve::{Condition, Form, Solution, SolveOptions, solve_with};
@@ -106,6 +106,8 @@ pub struct Outcome {
     pub placement: Placement,
     /// What the writer did.
     pub summary: Summary,
+    /// Everything added to the drawing, as shapes (for a preview).
+    pub additions: Additions,
 }
 
 /// The solver's options in the model's units.
@@ -208,7 +210,7 @@ pub fn prepare(bytes: &[u8], job: &Job) -> Result<(Outcome, Plan), Error> {
     let (additions, placement) =
         layout(&carried.structure, &reading.structure, &solution, reading.extents, &layout_options);
     let (plan, summary) = plan(&file, &additions, &job.layers)?;
-    Ok((Outcome { reading, carried, solution, placement, summary }, plan))
+    Ok((Outcome { reading, carried, solution, placement, summary, additions }, plan))
 }
 
 #[cfg(test)]

@@ -136,6 +136,11 @@ pub struct SolveArgs {
     /// report each (NAME-hangline.json).
     #[arg(long, value_name = "FILE.json")]
     pub report: Option<PathBuf>,
+    /// Also draw a picture of the result (SVG): the drawing's supports,
+    /// loads and deck with everything added, for a look without CAD; with
+    /// several drawings, a folder for one each (NAME-hangline.svg).
+    #[arg(long, value_name = "FILE.svg")]
+    pub preview: Option<PathBuf>,
     /// With several drawings: look into sub-folders too.
     #[arg(long)]
     pub recursive: bool,
@@ -223,6 +228,10 @@ pub struct AssessArgs {
     /// Also write a JSON report.
     #[arg(long, value_name = "FILE.json")]
     pub report: Option<PathBuf>,
+    /// Also draw a picture of the result (SVG): the arch's faces, fill and
+    /// loads with everything added, for a look without CAD.
+    #[arg(long, value_name = "FILE.svg")]
+    pub preview: Option<PathBuf>,
     /// Unit weight of the masonry, e.g. "22 kN/m3" (or "140 pcf"); "0 kN/m3"
     /// for a weightless ring carrying only the drawn loads.
     #[arg(long, value_name = "WEIGHT", allow_hyphen_values = true)]
@@ -515,6 +524,7 @@ impl SolveArgs {
             jobs: None,
             output: self.output.clone(),
             report: self.report.clone(),
+            preview: self.preview.clone(),
             recursive: false,
             threads: None,
             summary: None,

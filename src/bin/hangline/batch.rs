@@ -11,7 +11,7 @@ use rayon::prelude::*;
 use serde::Serialize;
 
 use crate::args::{Cli, Command, SolveArgs};
-use crate::{default_output, solve_one};
+use crate::{Sides, default_output, solve_one};
 use hangline::layout::nice::fmt_force;
 
 /// True when the arguments ask for more than one drawing, or for a folder,
@@ -139,6 +139,7 @@ fn job_file(path: &Path, defaults: &SolveArgs) -> Result<Vec<Task>> {
         args.input = vec![input.clone()];
         args.output = line_args.output.as_ref().map(|o| base.join(o));
         args.report = line_args.report.as_ref().map(|r| base.join(r));
+        args.preview = line_args.preview.as_ref().map(|r| base.join(r));
         tasks.push(Task { input, args });
     }
     if tasks.is_empty() {
@@ -186,6 +187,7 @@ pub fn run(a: &SolveArgs) -> Result<bool> {
                 let mut args = a.or(a);
                 args.input = vec![input.clone()];
                 args.report = None;
+                args.preview = None;
                 args.output = out_dir.as_ref().map(|d| d.join(format!("{}-hangline.dxf", stem(&input))));
                 tasks.push(Task { input, args });
             }
@@ -193,6 +195,7 @@ pub fn run(a: &SolveArgs) -> Result<bool> {
         }
     };
     let report_dir = if a.jobs.is_none() { out_folder(&a.report, "--report")? } else { None };
+    let preview_dir = if a.jobs.is_none() { out_folder(&a.preview, "--preview")? } else { None };
     let pool = rayon::ThreadPoolBuilder::new()
         .num_threads(a.threads.unwrap_or(0))
         .build()
@@ -209,7 +212,7 @@ pub fn run(a: &SolveArgs) -> Result<bool> {
         tasks
             .par_iter()
             .map(|t| {
-                let row = solve_task(t, report_dir.as_deref());
+                let row = solve_task(t, report_dir.as_deref(), preview_dir.as_deref());
                 bar.set_message(t.input.display().to_string());
                 bar.inc(1);
                 row
@@ -227,13 +230,21 @@ pub fn run(a: &SolveArgs) -> Result<bool> {
     Ok(all.iter().all(|r| r.result != "failed"))
 }
 
-fn solve_task(t: &Task, report_dir: Option<&Path>) -> Row {
+fn solve_task(t: &Task, report_dir: Option<&Path>, preview_dir: Option<&Path>) -> Row {
     let drawing = t.input.display().to_string();
     let result = t.args.job().and_then(|job| {
         let output = t.args.output.clone().unwrap_or_else(|| default_output(&t.input));
         let report =
             t.args.report.clone().or_else(|| report_dir.map(|d| d.join(format!("{}-hangline.json", stem(&t.input)))));
-        solve_one(&t.input, &output, report.as_deref(), &job, t.args.force)
+        let preview =
+            t.args.preview.clone().or_else(|| preview_dir.map(|d| d.join(format!("{}-hangline.svg", stem(&t.input)))));
+        solve_one(
+            &t.input,
+            &output,
+            Sides { report: report.as_deref(), preview: preview.as_deref() },
+            &job,
+            t.args.force,
+        )
     });
     match result {
         Ok(done) => {

@@ -132,35 +132,105 @@ pub struct Done {
     pub output: PathBuf,
 }
 
-/// Solves one drawing and writes its output (and report), each whole or not
-/// at all.
-pub fn solve_one(input: &Path, output: &Path, report_to: Option<&Path>, job: &Job, force: bool) -> Result<Done> {
+/// Where the side outputs go: the JSON report and the preview picture.
+#[derive(Clone, Copy, Debug, Default)]
+pub struct Sides<'a> {
+    /// The report.
+    pub report: Option<&'a Path>,
+    /// The preview (SVG, or PNG when built in).
+    pub preview: Option<&'a Path>,
+}
+
+/// The kinds of preview picture, by the file name's extension.
+#[derive(Clone, Copy, Debug, PartialEq, Eq)]
+enum Picture {
+    Svg,
+    Png,
+}
+
+/// The kind of picture `path` asks for, or why it cannot be written.
+fn picture_kind(path: &Path) -> Result<Picture> {
+    match path.extension().and_then(|e| e.to_str()).map(str::to_ascii_lowercase).as_deref() {
+        Some("svg") => Ok(Picture::Svg),
+        Some("png") => Ok(Picture::Png),
+        _ => bail!("--preview {}: give a file name ending in .svg or .png", path.display()),
+    }
+}
+
+/// The preview's bytes in the kind its file name asks for.
+fn picture(path: &Path, view: &hangline::preview::PreviewInput<'_>) -> Result<Vec<u8>> {
+    let svg = hangline::preview::svg(view);
+    match picture_kind(path)? {
+        Picture::Svg => Ok(svg.into_bytes()),
+        Picture::Png => png(&svg).with_context(|| format!("cannot draw {}", path.display())),
+    }
+}
+
+/// Rasterises the SVG preview (resvg), with the system's fonts. Without
+/// any font the picture is drawn without its texts, and a warning says so.
+#[cfg(feature = "png")]
+fn png(svg: &str) -> Result<Vec<u8>> {
+    use resvg::{tiny_skia, usvg};
+    let mut options = usvg::Options::default();
+    options.fontdb_mut().load_system_fonts();
+    if options.fontdb.is_empty() {
+        warn("no fonts found on this system: the PNG preview is drawn without its texts (the SVG has them)");
+    }
+    let tree = usvg::Tree::from_str(svg, &options).context("the picture is not valid SVG")?;
+    let size = tree.size().to_int_size();
+    let mut pixmap = tiny_skia::Pixmap::new(size.width(), size.height())
+        .ok_or_else(|| anyhow::anyhow!("the picture has no size ({}×{})", size.width(), size.height()))?;
+    resvg::render(&tree, tiny_skia::Transform::default(), &mut pixmap.as_mut());
+    pixmap.encode_png().context("cannot encode the PNG")
+}
+
+/// Without the `png` feature, PNG previews are refused.
+#[cfg(not(feature = "png"))]
+fn png(_svg: &str) -> Result<Vec<u8>> {
+    bail!("this hangline was built without PNG previews (cargo feature png); give a .svg file")
+}
+
+/// Solves one drawing and writes its output (and report and preview), each
+/// whole or not at all.
+pub fn solve_one(input: &Path, output: &Path, sides: Sides<'_>, job: &Job, force: bool) -> Result<Done> {
     let input_name = input.display().to_string();
     let outcome = process(
         input,
         output,
-        report_to,
+        sides,
         force,
         |bytes| Ok(pipeline::prepare(bytes, job)?),
         |o: &pipeline::Outcome| {
             Ok(serde_json::to_value(report(&input_name, &o.reading, &o.carried, &o.solution, Some(&o.placement)))?)
+        },
+        |path, o: &pipeline::Outcome| {
+            let view = hangline::preview::PreviewInput::solved(
+                &input_name,
+                &o.reading,
+                &job.read.layers.deck,
+                &o.additions,
+                &job.layers,
+            );
+            picture(path, &view)
         },
     )?;
     Ok(Done { outcome, output: output.to_path_buf() })
 }
 
 /// Runs `work` on the input's bytes and writes the output drawing from its
-/// plan (and the report), each to a temporary file renamed into place only
-/// when everything worked.
+/// plan (and the report and the preview), each to a temporary file renamed
+/// into place only when everything worked.
 fn process<T>(
     input: &Path,
     output: &Path,
-    report_to: Option<&Path>,
+    sides: Sides<'_>,
     force: bool,
     work: impl FnOnce(&[u8]) -> Result<(T, Plan)>,
     report: impl FnOnce(&T) -> Result<serde_json::Value>,
+    preview: impl FnOnce(&Path, &T) -> Result<Vec<u8>>,
 ) -> Result<T> {
-    for (what, p) in [("output", Some(output)), ("report", report_to)] {
+    let report_to = sides.report;
+    for (what, p) in [("output", Some(output)), ("report", report_to), ("preview", sides.preview)] {
         if let Some(p) = p
             && p.is_dir()
         {
@@ -174,6 +244,12 @@ fn process<T>(
         && (same_file(r, input) || r == output)
     {
         bail!("the report {} would overwrite a drawing; give the report another name", r.display());
+    }
+    if let Some(p) = sides.preview {
+        picture_kind(p)?;
+        if same_file(p, input) || p == output || Some(p) == report_to {
+            bail!("the preview {} would overwrite another file; give the preview another name", p.display());
+        }
     }
     let input_name = input.display().to_string();
     let (input_file, stamp, bytes) = open_input(input)?;
@@ -194,15 +270,24 @@ fn process<T>(
         }
         None => None,
     };
+    let preview_temp = match sides.preview {
+        Some(path) => {
+            let mut t = temp_beside(path)?;
+            let bytes = preview(path, &outcome)?;
+            t.as_file_mut().write_all(&bytes).with_context(|| format!("cannot write {}", path.display()))?;
+            Some((t, path))
+        }
+        None => None,
+    };
     temp.persist(output).with_context(|| format!("cannot write {}", output.display()))?;
-    if let Some((t, path)) = report_temp {
+    for (t, path) in report_temp.into_iter().chain(preview_temp) {
         t.persist(path).with_context(|| format!("cannot write {}", path.display()))?;
     }
     Ok(outcome)
 }
 
 /// The line saying what was written.
-fn wrote_line(output: &Path, sum: &hangline::write::Summary, report: Option<&Path>) -> String {
+fn wrote_line(output: &Path, sum: &hangline::write::Summary, sides: Sides<'_>) -> String {
     let mut wrote = format!(
         "wrote   {} ({} entities added{}{})",
         output.display(),
@@ -210,8 +295,9 @@ fn wrote_line(output: &Path, sum: &hangline::write::Summary, report: Option<&Pat
         if sum.new_layers.is_empty() { String::new() } else { format!(", {} layers", sum.new_layers.len()) },
         if sum.replaced > 0 { format!(", {} from an earlier run replaced", sum.replaced) } else { String::new() }
     );
-    if let Some(path) = report {
-        wrote.push_str(&format!(" and {}", path.display()));
+    let extra: Vec<String> = sides.report.into_iter().chain(sides.preview).map(|p| p.display().to_string()).collect();
+    if !extra.is_empty() {
+        wrote.push_str(&format!(" and {}", extra.join(" and ")));
     }
     wrote
 }
@@ -222,13 +308,18 @@ fn assess(a: &AssessArgs) -> Result<bool> {
     let input = &a.input;
     let output = a.output.clone().unwrap_or_else(|| default_output(input));
     let input_name = input.display().to_string();
+    let sides = Sides { report: a.report.as_deref(), preview: a.preview.as_deref() };
     let outcome = process(
         input,
         &output,
-        a.report.as_deref(),
+        sides,
         a.force,
         |bytes| Ok(prepare_assess(bytes, &job)?),
         |o: &AssessOutcome| Ok(serde_json::to_value(assess_report(&input_name, &o.reading, &o.assessment, &job))?),
+        |path, o: &AssessOutcome| {
+            let view = hangline::preview::PreviewInput::assessed(&input_name, &o.reading, &o.additions, &job.layers);
+            picture(path, &view)
+        },
     )?;
     let q = a.quiet;
     let r = &outcome.reading;
@@ -285,7 +376,7 @@ fn assess(a: &AssessArgs) -> Result<bool> {
             ),
         );
     }
-    say(q, &wrote_line(&output, &outcome.summary, a.report.as_deref()));
+    say(q, &wrote_line(&output, &outcome.summary, sides));
     say(q, &format!("caution {ASSESS_CAUTION}"));
     Ok(true)
 }
@@ -299,7 +390,8 @@ fn solve(a: &SolveArgs) -> Result<bool> {
     let input = &a.input[0];
     let job = a.job()?;
     let output = a.output.clone().unwrap_or_else(|| default_output(input));
-    let done = solve_one(input, &output, a.report.as_deref(), &job, a.force)?;
+    let sides = Sides { report: a.report.as_deref(), preview: a.preview.as_deref() };
+    let done = solve_one(input, &output, sides, &job, a.force)?;
     let input_name = input.display().to_string();
     let outcome = &done.outcome;
     let r = &outcome.reading;
@@ -364,7 +456,7 @@ fn solve(a: &SolveArgs) -> Result<bool> {
             ),
         );
     }
-    say(q, &wrote_line(&output, &outcome.summary, a.report.as_deref()));
+    say(q, &wrote_line(&output, &outcome.summary, sides));
     say(q, &format!("caution {CAUTION}"));
     Ok(true)
 }
