@@ -576,4 +576,78 @@ mod tests {
         assert!(s.starts_with("<svg"), "{s}");
         assert!(s.contains("viewBox"));
     }
+    /// A text's box follows its alignment and rotation: right-aligned,
+    /// top-anchored text lies left of and below its anchor; turned by 90°
+    /// it lies below and right (x ↦ −y, y ↦ x).
+    #[test]
+    fn preview_text_box_follows_alignment_and_rotation() {
+        let t = Text {
+            at: Point::new(10.0, 5.0),
+            height: 1.0,
+            rotation: 0.0,
+            content: "abcd".into(),
+            h: HAlign::Right,
+            v: VAlign::Top,
+        };
+        let b = text_box(&t);
+        assert!((b.x1 - 10.0).abs() < 1e-12 && b.x0 < 10.0 - 3.0, "{b:?}");
+        assert!((b.y1 - 5.0).abs() < 1e-12 && (b.y0 - (5.0 - 1.3)).abs() < 1e-12, "{b:?}");
+        let turned = text_box(&Text { rotation: 90.0, ..t });
+        assert!((turned.y1 - 5.0).abs() < 1e-9 && turned.y0 < 5.0 - 3.0, "{turned:?}");
+        assert!((turned.x0 - 10.0).abs() < 1e-9 && (turned.x1 - 11.3).abs() < 1e-9, "{turned:?}");
+    }
+
+    /// A dimension is drawn as its geometry, inside a group of its own.
+    #[test]
+    fn preview_draws_a_dimension_as_its_geometry() {
+        let d = crate::layout::linear(
+            Point::new(0.0, 0.0),
+            Point::new(10.0, 0.0),
+            0.0,
+            Point::new(5.0, -2.0),
+            "span ",
+            &additions(vec![]).dim_style,
+        );
+        let count = d.geometry.len();
+        let a = additions(vec![item(Role::Dimensions, Shape::Dimension(Box::new(d)))]);
+        let layers = OutputLayers::default();
+        let view = PreviewInput { title: String::new(), input: vec![], additions: &a, layers: &layers };
+        let s = svg(&view);
+        let inside = s.split(r#"<g class="dimension">"#).nth(1).expect("a dimension group");
+        let drawn =
+            inside.matches("<line").count() + inside.matches("<polygon").count() + inside.matches("<text").count();
+        assert_eq!(drawn, count, "{s}");
+    }
+
+    /// Beer & Johnston, Vector Mechanics for Engineers: Statics, Prob.
+    /// 7.116 (the fixture of the crate's doc example): the preview holds
+    /// both supports, an arrow and a label per load, and frames every node.
+    #[test]
+    fn preview_of_a_solved_drawing_shows_its_input() {
+        use crate::pipeline::{Given, Job, prepare};
+        let bytes = std::fs::read("fixtures/bj7116-ft-r2000.dxf").expect("the fixture");
+        let job = Job {
+            read: Default::default(),
+            form: crate::solve::Form::Cable,
+            given: vec![Given::Through(4.0, -3.6)],
+            layout: Default::default(),
+            force_scale: None,
+            layers: Default::default(),
+            self_weight: None,
+            axial_stiffness: None,
+            chord_tolerance: None,
+        };
+        let (o, _) = prepare(&bytes, &job).expect("solved");
+        let view = PreviewInput::solved("bj", &o.reading, "DECK", &o.additions, &job.layers);
+        let loads = o.reading.loads.len();
+        assert_eq!(view.input.iter().filter(|s| matches!(s.shape, Shape::Solid(_))).count(), loads);
+        let labels = view.input.iter().filter(|s| matches!(s.shape, Shape::Text(_))).count();
+        assert_eq!(labels, o.reading.loads.iter().filter(|l| l.label.is_some()).count());
+        let r = extent(&view).expect("an extent");
+        for p in &o.solution.nodes {
+            assert!(r.contains(*p), "{p:?} outside {r:?}");
+        }
+        let s = svg(&view);
+        assert!(s.contains(r#"data-layer="SUPPORTS""#) && s.contains(r#"data-layer="LOADS""#), "{s}");
+    }
 }

@@ -177,3 +177,60 @@ fn an_assessment_has_a_preview_too() {
     let layers: Vec<&str> = input.children().filter_map(|n| n.attribute("data-layer")).collect();
     assert!(layers.contains(&"INTRADOS") && layers.contains(&"EXTRADOS"), "{layers:?}");
 }
+
+/// `--preview FILE.png`: a PNG of the SVG's size in pixels, on white, with
+/// the profile's magenta (ACI 6) in it; decoded by tiny-skia.
+#[cfg(feature = "png")]
+#[test]
+fn a_png_preview_is_the_picture_rasterised() {
+    let dir = temp();
+    let png = dir.path().join("out.png");
+    let input = fixture("footbridge-m-r2018.dxf").display().to_string();
+    let run = hangline(&[
+        "solve",
+        &input,
+        "--sag",
+        "6",
+        "-o",
+        &dir.path().join("o.dxf").display().to_string(),
+        "--preview",
+        &png.display().to_string(),
+    ])
+    .ok();
+    assert!(run.stdout.contains("out.png"), "{}", run.stdout);
+    let bytes = std::fs::read(&png).expect("the PNG is written");
+    // The PNG signature (ISO/IEC 15948, 5.2).
+    assert!(bytes.starts_with(b"\x89PNG\r\n\x1a\n"));
+    let pixmap = resvg::tiny_skia::Pixmap::decode_png(&bytes).expect("a PNG tiny-skia decodes");
+    assert_eq!(pixmap.width().max(pixmap.height()), 1600);
+    let pixels = pixmap.pixels();
+    let white = pixels.iter().filter(|p| (p.red(), p.green(), p.blue()) == (255, 255, 255)).count();
+    assert!(white > pixels.len() / 2, "a white background");
+    let magenta = pixels.iter().filter(|p| p.red() > 200 && p.green() < 60 && p.blue() > 200).count();
+    assert!(magenta > 100, "the profile is drawn ({magenta} magenta pixels)");
+}
+
+/// A batch writes one preview per drawing into the folder given.
+#[test]
+fn a_batch_writes_a_preview_per_drawing() {
+    let dir = temp();
+    for name in ["a.dxf", "b.dxf"] {
+        std::fs::copy(fixture("footbridge-m-r2018.dxf"), dir.path().join(name)).expect("copy");
+    }
+    let pictures = dir.path().join("pictures");
+    hangline(&[
+        "solve",
+        &dir.path().join("a.dxf").display().to_string(),
+        &dir.path().join("b.dxf").display().to_string(),
+        "--sag",
+        "6",
+        "--preview",
+        &pictures.display().to_string(),
+        "-q",
+    ])
+    .ok();
+    for name in ["a-hangline.svg", "b-hangline.svg"] {
+        let text = std::fs::read_to_string(pictures.join(name)).expect("a preview per drawing");
+        Document::parse(&text).expect("parses");
+    }
+}

@@ -296,8 +296,11 @@ fn wrote_line(output: &Path, sum: &hangline::write::Summary, sides: Sides<'_>) -
         if sum.replaced > 0 { format!(", {} from an earlier run replaced", sum.replaced) } else { String::new() }
     );
     let extra: Vec<String> = sides.report.into_iter().chain(sides.preview).map(|p| p.display().to_string()).collect();
-    if !extra.is_empty() {
-        wrote.push_str(&format!(" and {}", extra.join(" and ")));
+    if let Some((last, rest)) = extra.split_last() {
+        for p in rest {
+            wrote.push_str(&format!(", {p}"));
+        }
+        wrote.push_str(&format!(" and {last}"));
     }
     wrote
 }
