@@ -20,6 +20,7 @@
 //!   safety factors (indicative: the code in force governs).
 //! * [`report`] is the machine-readable summary.
 //! * [`pipeline`] runs the stages in order on one drawing's bytes.
+//! * [`preview`] draws the input's relevant layers and the additions as SVG.
 //!
 //! ```
 //! use hangline::pipeline::{Given, Job, run};
@@ -55,6 +56,7 @@ pub mod error;
 pub mod layout;
 pub mod model;
 pub mod pipeline;
+pub mod preview;
 pub mod read;
 pub mod report;
 pub mod sheet;

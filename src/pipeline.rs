@@ -116,6 +116,8 @@ pub struct Outcome {
     pub alternatives: Vec<Alternative>,
     /// The members' sizes, if asked for (of the first alternative).
     pub sizing: Option<crate::sizing::Sizing>,
+    /// Everything added to the drawing, as shapes (for a preview).
+    pub additions: Additions,
 }
 
 /// One design alternative's result.
@@ -281,7 +283,7 @@ pub fn prepare(bytes: &[u8], job: &Job) -> Result<(Outcome, Plan), Error> {
         );
         let (plan, summary) = plan(&file, &additions, &job.layers)?;
         return Ok((
-            Outcome { reading, carried, solution, placement, summary, alternatives: Vec::new(), sizing },
+            Outcome { reading, carried, solution, placement, summary, alternatives: Vec::new(), sizing, additions },
             plan,
         ));
     }
@@ -343,7 +345,7 @@ pub fn prepare(bytes: &[u8], job: &Job) -> Result<(Outcome, Plan), Error> {
     let (plan, summary) = plan(&file, &additions, &job.layers)?;
     let solution = alternatives[0].solution.clone();
     let sizing = job.sizing.as_ref().map(|spec| size_members(spec, &carried, &solution)).transpose()?;
-    Ok((Outcome { reading, carried, solution, placement, summary, alternatives, sizing }, plan))
+    Ok((Outcome { reading, carried, solution, placement, summary, alternatives, sizing, additions }, plan))
 }
 
 /// Sizes the members of `solution` (segments named in Bow's notation, as in

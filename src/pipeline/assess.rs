@@ -10,9 +10,9 @@ use crate::arch::thrust::{self, LoadFactor, Thinnest, ThrustRange};
 use crate::arch::{BlockLoad, LoadKind, Ring, ThrustLine};
 use crate::dxf::File;
 use crate::error::Error;
-use crate::layout::LayoutOptions;
 use crate::layout::Placement;
 use crate::layout::assess::{AssessView, LineKind, Shown, assess_layout};
+use crate::layout::{Additions, LayoutOptions};
 use crate::read::arch::{ArchReadOptions, ArchReading, read_arch, scan_options};
 use crate::units::{ForceUnit, LengthUnit, Units};
 use crate::write::{OutputLayers, Plan, Summary, plan};
@@ -148,6 +148,8 @@ pub struct AssessOutcome {
     pub placement: Placement,
     /// What the writer did.
     pub summary: Summary,
+    /// Everything added to the drawing, as shapes (for a preview).
+    pub additions: Additions,
 }
 
 /// Runs the assessment on `bytes` up to the plan of the output.
@@ -163,7 +165,7 @@ pub fn prepare_assess(bytes: &[u8], job: &AssessJob) -> Result<(AssessOutcome, P
     let view = view(&assessment, units);
     let (additions, placement) = assess_layout(&view, reading.extents, &layout_options);
     let (plan, summary) = plan(&file, &additions, &job.layers)?;
-    Ok((AssessOutcome { reading, assessment, placement, summary }, plan))
+    Ok((AssessOutcome { reading, assessment, placement, summary, additions }, plan))
 }
 
 /// Runs the assessment on `bytes`, writing the output drawing to `out`.

@@ -12,6 +12,7 @@ mod cases;
 mod continuous;
 mod hostile;
 mod outside;
+mod preview;
 mod regressions;
 mod roundtrip;
 mod sheet;

@@ -46,6 +46,27 @@ fn the_sheet_follows_the_report() {
     }
     let page = std::fs::read_to_string(&html).expect("html");
     assert!(page.starts_with("<!DOCTYPE html>") && page.contains("<table>") && page.contains("</html>"));
+    // The picture is inlined: the profile group with the report's first node
+    // (y flipped, as the preview writes it).
+    assert!(page.contains("<svg") && page.contains("id=\"role-profile\""), "the page carries its picture");
+    // With --preview, the Markdown sheet links to the picture beside it.
+    let svg = dir.path().join("look.svg");
+    hangline(&[
+        "solve",
+        &input,
+        "--sag",
+        "6",
+        "-o",
+        &out.display().to_string(),
+        "--preview",
+        &svg.display().to_string(),
+        "--sheet",
+        &md.display().to_string(),
+        "-q",
+    ])
+    .ok();
+    let text = std::fs::read_to_string(&md).expect("the sheet");
+    assert!(text.contains("](look.svg)") && svg.exists(), "{text}");
 }
 
 #[test]

@@ -144,6 +144,11 @@ pub struct SolveArgs {
     /// HTML when the name ends in .html (one drawing only).
     #[arg(long, value_name = "FILE.md")]
     pub sheet: Option<PathBuf>,
+    /// Also draw a picture of the result (SVG): the drawing's supports,
+    /// loads and deck with everything added, for a look without CAD; with
+    /// several drawings, a folder for one each (NAME-hangline.svg).
+    #[arg(long, value_name = "FILE.svg")]
+    pub preview: Option<PathBuf>,
     /// With several drawings: look into sub-folders too.
     #[arg(long)]
     pub recursive: bool,
@@ -264,6 +269,10 @@ pub struct AssessArgs {
     /// Also write a JSON report.
     #[arg(long, value_name = "FILE.json")]
     pub report: Option<PathBuf>,
+    /// Also draw a picture of the result (SVG): the arch's faces, fill and
+    /// loads with everything added, for a look without CAD.
+    #[arg(long, value_name = "FILE.svg")]
+    pub preview: Option<PathBuf>,
     /// Unit weight of the masonry, e.g. "22 kN/m3" (or "140 pcf"); "0 kN/m3"
     /// for a weightless ring carrying only the drawn loads.
     #[arg(long, value_name = "WEIGHT", allow_hyphen_values = true)]
@@ -557,6 +566,7 @@ impl SolveArgs {
             output: self.output.clone(),
             report: self.report.clone(),
             sheet: None,
+            preview: self.preview.clone(),
             recursive: false,
             threads: None,
             summary: None,

@@ -142,6 +142,7 @@ fn job_file(path: &Path, defaults: &SolveArgs) -> Result<Vec<Task>> {
         if let Some(c) = &line_args.catalogue {
             args.catalogue = Some(base.join(c));
         }
+        args.preview = line_args.preview.as_ref().map(|r| base.join(r));
         tasks.push(Task { input, args });
     }
     if tasks.is_empty() {
@@ -189,6 +190,7 @@ pub fn run(a: &SolveArgs) -> Result<bool> {
                 let mut args = a.or(a);
                 args.input = vec![input.clone()];
                 args.report = None;
+                args.preview = None;
                 args.output = out_dir.as_ref().map(|d| d.join(format!("{}-hangline.dxf", stem(&input))));
                 tasks.push(Task { input, args });
             }
@@ -196,6 +198,7 @@ pub fn run(a: &SolveArgs) -> Result<bool> {
         }
     };
     let report_dir = if a.jobs.is_none() { out_folder(&a.report, "--report")? } else { None };
+    let preview_dir = if a.jobs.is_none() { out_folder(&a.preview, "--preview")? } else { None };
     let pool = rayon::ThreadPoolBuilder::new()
         .num_threads(a.threads.unwrap_or(0))
         .build()
@@ -212,7 +215,7 @@ pub fn run(a: &SolveArgs) -> Result<bool> {
         tasks
             .par_iter()
             .map(|t| {
-                let row = solve_task(t, report_dir.as_deref());
+                let row = solve_task(t, report_dir.as_deref(), preview_dir.as_deref());
                 bar.set_message(t.input.display().to_string());
                 bar.inc(1);
                 row
@@ -230,13 +233,16 @@ pub fn run(a: &SolveArgs) -> Result<bool> {
     Ok(all.iter().all(|r| r.result != "failed"))
 }
 
-fn solve_task(t: &Task, report_dir: Option<&Path>) -> Row {
+fn solve_task(t: &Task, report_dir: Option<&Path>, preview_dir: Option<&Path>) -> Row {
     let drawing = t.input.display().to_string();
     let result = t.args.job().and_then(|job| {
         let output = t.args.output.clone().unwrap_or_else(|| default_output(&t.input));
         let report =
             t.args.report.clone().or_else(|| report_dir.map(|d| d.join(format!("{}-hangline.json", stem(&t.input)))));
-        solve_one(&t.input, &output, &crate::Files { report: report.clone(), sheet: None }, &job, t.args.force)
+        let preview =
+            t.args.preview.clone().or_else(|| preview_dir.map(|d| d.join(format!("{}-hangline.svg", stem(&t.input)))));
+        let files = crate::Files { report: report.clone(), sheet: None, preview };
+        solve_one(&t.input, &output, &files, &job, t.args.force)
     });
     match result {
         Ok(done) => {

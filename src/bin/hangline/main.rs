@@ -142,17 +142,34 @@ pub fn solve_one(input: &Path, output: &Path, files: &Files, job: &Job, force: b
     if let Some(path) = &files.report {
         extras.push(Extra { what: "report", path, make: Box::new(|o| json_bytes(&report_of(o))) });
     }
+    let svg_of = |o: &pipeline::Outcome| {
+        hangline::preview::svg(&hangline::preview::PreviewInput::solved(
+            &input_name,
+            &o.reading,
+            &job.read.layers.deck,
+            &o.additions,
+            &job.layers,
+        ))
+    };
+    if let Some(path) = &files.preview {
+        picture_kind(path)?;
+        extras.push(Extra { what: "preview", path, make: Box::new(move |o| picture(path, svg_of(o))) });
+    }
     if let Some(path) = &files.sheet {
         let html = path.extension().is_some_and(|e| e.eq_ignore_ascii_case("html") || e.eq_ignore_ascii_case("htm"));
+        let link = files.preview.as_deref().map(|p| link_from(path, p));
         extras.push(Extra {
             what: "calculation sheet",
             path,
             make: Box::new(move |o| {
                 let r = report_of(o);
                 let page = if html {
-                    hangline::sheet::html(&r, Picture::None)
+                    // The page carries its picture inline.
+                    let svg = svg_of(o);
+                    hangline::sheet::html(&r, Picture::Inline { svg: &svg, link: link.as_deref().unwrap_or("") })
                 } else {
-                    hangline::sheet::markdown(&r, Picture::None)
+                    let picture = link.as_deref().map_or(Picture::None, Picture::Link);
+                    hangline::sheet::markdown(&r, picture)
                 };
                 Ok(page.into_bytes())
             }),
@@ -169,6 +186,65 @@ pub struct Files {
     pub report: Option<PathBuf>,
     /// The calculation sheet (Markdown, or HTML by its extension).
     pub sheet: Option<PathBuf>,
+    /// The preview picture (SVG, or PNG when built in).
+    pub preview: Option<PathBuf>,
+}
+
+/// The kinds of preview picture, by the file name's extension.
+#[derive(Clone, Copy, Debug, PartialEq, Eq)]
+enum PictureKind {
+    Svg,
+    Png,
+}
+
+/// The kind of picture `path` asks for, or why it cannot be written.
+fn picture_kind(path: &Path) -> Result<PictureKind> {
+    match path.extension().and_then(|e| e.to_str()).map(str::to_ascii_lowercase).as_deref() {
+        Some("svg") => Ok(PictureKind::Svg),
+        Some("png") => Ok(PictureKind::Png),
+        _ => bail!("--preview {}: give a file name ending in .svg or .png", path.display()),
+    }
+}
+
+/// The preview's bytes in the kind its file name asks for.
+fn picture(path: &Path, svg: String) -> Result<Vec<u8>> {
+    match picture_kind(path)? {
+        PictureKind::Svg => Ok(svg.into_bytes()),
+        PictureKind::Png => png(&svg).with_context(|| format!("cannot draw {}", path.display())),
+    }
+}
+
+/// Rasterises the SVG preview (resvg), with the system's fonts. Without
+/// any font the picture is drawn without its texts, and a warning says so.
+#[cfg(feature = "png")]
+fn png(svg: &str) -> Result<Vec<u8>> {
+    use resvg::{tiny_skia, usvg};
+    let mut options = usvg::Options::default();
+    options.fontdb_mut().load_system_fonts();
+    if options.fontdb.is_empty() {
+        warn("no fonts found on this system: the PNG preview is drawn without its texts (the SVG has them)");
+    }
+    let tree = usvg::Tree::from_str(svg, &options).context("the picture is not valid SVG")?;
+    let size = tree.size().to_int_size();
+    let mut pixmap = tiny_skia::Pixmap::new(size.width(), size.height())
+        .ok_or_else(|| anyhow::anyhow!("the picture has no size ({}×{})", size.width(), size.height()))?;
+    resvg::render(&tree, tiny_skia::Transform::default(), &mut pixmap.as_mut());
+    pixmap.encode_png().context("cannot encode the PNG")
+}
+
+/// Without the `png` feature, PNG previews are refused.
+#[cfg(not(feature = "png"))]
+fn png(_svg: &str) -> Result<Vec<u8>> {
+    bail!("this hangline was built without PNG previews (cargo feature png); give a .svg file")
+}
+
+/// The sheet's link to the preview: its path relative to the sheet's
+/// folder when they share one, else as given.
+fn link_from(sheet: &Path, preview: &Path) -> String {
+    match (sheet.parent(), preview.parent(), preview.file_name()) {
+        (Some(a), Some(b), Some(name)) if a == b => name.to_string_lossy().into_owned(),
+        _ => preview.display().to_string(),
+    }
 }
 
 /// How an extra file's bytes are made from the outcome.
@@ -272,6 +348,18 @@ fn assess(a: &AssessArgs) -> Result<bool> {
             }),
         });
     }
+    if let Some(path) = &a.preview {
+        picture_kind(path)?;
+        extras.push(Extra {
+            what: "preview",
+            path,
+            make: Box::new(|o: &AssessOutcome| {
+                let view =
+                    hangline::preview::PreviewInput::assessed(&input_name, &o.reading, &o.additions, &job.layers);
+                picture(path, hangline::preview::svg(&view))
+            }),
+        });
+    }
     let outcome = process(input, &output, a.force, |bytes| Ok(prepare_assess(bytes, &job)?), extras)?;
     let q = a.quiet;
     let r = &outcome.reading;
@@ -328,7 +416,7 @@ fn assess(a: &AssessArgs) -> Result<bool> {
             ),
         );
     }
-    say(q, &wrote_line(&output, &outcome.summary, &[a.report.as_deref()]));
+    say(q, &wrote_line(&output, &outcome.summary, &[a.report.as_deref(), a.preview.as_deref()]));
     say(q, &format!("caution {ASSESS_CAUTION}"));
     Ok(true)
 }
@@ -345,7 +433,7 @@ fn solve(a: &SolveArgs) -> Result<bool> {
     let input = &a.input[0];
     let job = a.job()?;
     let output = a.output.clone().unwrap_or_else(|| default_output(input));
-    let files = Files { report: a.report.clone(), sheet: a.sheet.clone() };
+    let files = Files { report: a.report.clone(), sheet: a.sheet.clone(), preview: a.preview.clone() };
     let done = solve_one(input, &output, &files, &job, a.force)?;
     let input_name = input.display().to_string();
     let outcome = &done.outcome;
@@ -440,7 +528,7 @@ fn solve(a: &SolveArgs) -> Result<bool> {
             say(q, &format!("{}{line}", if i == 0 { "sized   " } else { "        " }));
         }
     }
-    say(q, &wrote_line(&output, &outcome.summary, &[a.report.as_deref(), a.sheet.as_deref()]));
+    say(q, &wrote_line(&output, &outcome.summary, &[a.report.as_deref(), a.preview.as_deref(), a.sheet.as_deref()]));
     say(q, &format!("caution {CAUTION}"));
     Ok(true)
 }
