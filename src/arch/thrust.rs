@@ -63,6 +63,10 @@ use super::{BlockLoad, Crossing, Face, Hinge, Joint, Ring, ThrustLine};
 /// pressure must be for the joint to count as a hinge.
 pub const HINGE_TOLERANCE: f64 = 1e-7;
 
+/// Coefficients of a programme's row below this fraction of the row's
+/// largest are round-off of a zero, and set to zero.
+const ROUND_OFF: f64 = 1e-13;
+
 /// The least normal force across a joint, as a fraction of the total load,
 /// that the programmes accept: well above the solver's feasibility
 /// tolerance ([`FEASIBILITY`]), so that a centre of pressure is always
@@ -582,7 +586,19 @@ impl Model {
         if let Some(live) = &self.live {
             normal.0[3] = -cross(u, live.sum[j]);
         }
-        [side(joint.at(0.5 - 0.5 * ratio), 1.0), side(joint.at(0.5 + 0.5 * ratio), -1.0), normal]
+        let mut rows = [side(joint.at(0.5 - 0.5 * ratio), 1.0), side(joint.at(0.5 + 0.5 * ratio), -1.0), normal];
+        // Round-off leaves 1e-17 where a coefficient is zero (the x of a
+        // crown joint's direction): such entries make the simplex's pivots
+        // ill-conditioned, so they are zeroed.
+        for (coef, constant) in &mut rows {
+            let largest = coef.iter().chain(std::iter::once(&*constant)).fold(0.0f64, |m, c| m.max(c.abs()));
+            for c in coef.iter_mut().chain(std::iter::once(constant)) {
+                if c.abs() <= ROUND_OFF * largest {
+                    *c = 0.0;
+                }
+            }
+        }
+        rows
     }
 
     /// Solves a programme over `(H, V, M₀)` on the joints scaled by `ratio`:

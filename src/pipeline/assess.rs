@@ -110,6 +110,8 @@ pub struct LiveResult {
     pub factor: LoadFactor,
     /// When swept: (x, factor) at each place tried (`None`: no collapse).
     pub sweep: Vec<(f64, Option<f64>)>,
+    /// Places of the sweep the solver could not settle, and why.
+    pub skipped: Vec<String>,
 }
 
 /// The assessment's results.
@@ -243,7 +245,17 @@ pub fn assess(reading: &ArchReading, job: &AssessJob) -> Result<Assessment, Erro
         None => None,
     };
     let live = match (job.live, &range) {
-        (Some(l), Some(_)) => Some(live_factor(ring, l, units)?),
+        (Some(l), Some(_)) => {
+            let result = live_factor(ring, l, units)?;
+            if !result.skipped.is_empty() {
+                warnings.push(format!(
+                    "the live load's sweep skipped {} place(s) the solver could not settle: {}",
+                    result.skipped.len(),
+                    result.skipped.join("; ")
+                ));
+            }
+            Some(result)
+        }
         (Some(_), None) => {
             warnings.push("no load factor: no thrust line fits the arch under its dead load alone".into());
             None
@@ -304,16 +316,25 @@ fn live_factor(ring: &Ring, live: Live, units: Units) -> Result<LiveResult, Erro
                 )));
             };
             let factor = thrust::load_factor(ring, &loads)?;
-            Ok(LiveResult { load: p, x, block, factor, sweep: Vec::new() })
+            Ok(LiveResult { load: p, x, block, factor, sweep: Vec::new(), skipped: Vec::new() })
         }
         None => {
             // One place per voussoir: at the middle of its extrados.
             let mut sweep = Vec::new();
+            let mut skipped = Vec::new();
             let mut worst: Option<LiveResult> = None;
             for &(a, b) in &ranges {
                 let x = 0.5 * (a + b);
                 let Some((block, loads)) = live_at(ring, &ranges, x, p) else { continue };
-                let factor = thrust::load_factor(ring, &loads)?;
+                // One place the solver cannot settle does not stop the sweep.
+                let factor = match thrust::load_factor(ring, &loads) {
+                    Ok(f) => f,
+                    Err(e @ thrust::ThrustError::Solver { .. }) => {
+                        skipped.push(format!("x = {} ({e})", crate::model::fmt_num(x)));
+                        continue;
+                    }
+                    Err(e) => return Err(e.into()),
+                };
                 sweep.push((x, factor.factor));
                 let better = match (&worst, factor.factor) {
                     (None, _) => true,
@@ -321,11 +342,12 @@ fn live_factor(ring: &Ring, live: Live, units: Units) -> Result<LiveResult, Erro
                     (Some(_), None) => false,
                 };
                 if better {
-                    worst = Some(LiveResult { load: p, x, block, factor, sweep: Vec::new() });
+                    worst = Some(LiveResult { load: p, x, block, factor, sweep: Vec::new(), skipped: Vec::new() });
                 }
             }
             let mut worst = worst.ok_or_else(|| Error::Condition("the arch has no voussoir to load".into()))?;
             worst.sweep = sweep;
+            worst.skipped = skipped;
             Ok(worst)
         }
     }

@@ -170,7 +170,7 @@ def wrenfield() -> None:
     road = rise + ring + 0.45
     # Fill between the extrados and the road, over the arch.
     theta = math.pi - 2.0 * a
-    bulge = math.tan(theta / 4.0)
+    bulge = -math.tan(theta / 4.0)  # clockwise: over the top from left to right
     msp.add_lwpolyline([(ex, ey, 0, 0, 0), (ex, road), (-ex, road), (-ex, ey, 0, 0, bulge)],
                        format="xyseb", close=True, dxfattribs={"layer": "FILL"})
     # Road surfacing and parapets, as a load per length over the arch.
