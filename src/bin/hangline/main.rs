@@ -317,6 +317,18 @@ fn process<T>(
     Ok(outcome)
 }
 
+/// Runs `f` with a spinner on the terminal (none when quiet or when stderr
+/// is not a terminal), so that a long run shows it is working; the
+/// spinner is cleared before the summary is printed.
+fn with_spinner<T>(quiet: bool, message: &str, f: impl FnOnce() -> T) -> T {
+    let bar = if quiet { indicatif::ProgressBar::hidden() } else { indicatif::ProgressBar::new_spinner() };
+    bar.set_message(message.to_string());
+    bar.enable_steady_tick(std::time::Duration::from_millis(120));
+    let out = f();
+    bar.finish_and_clear();
+    out
+}
+
 /// The line saying what was written.
 fn wrote_line(output: &Path, sum: &hangline::write::Summary, also: &[Option<&Path>]) -> String {
     let mut wrote = format!(
@@ -360,7 +372,9 @@ fn assess(a: &AssessArgs) -> Result<bool> {
             }),
         });
     }
-    let outcome = process(input, &output, a.force, |bytes| Ok(prepare_assess(bytes, &job)?), extras)?;
+    let outcome = with_spinner(a.quiet, &format!("assessing {input_name}"), || {
+        process(input, &output, a.force, |bytes| Ok(prepare_assess(bytes, &job)?), extras)
+    })?;
     let q = a.quiet;
     let r = &outcome.reading;
     let s = &outcome.assessment;
@@ -434,7 +448,9 @@ fn solve(a: &SolveArgs) -> Result<bool> {
     let job = a.job()?;
     let output = a.output.clone().unwrap_or_else(|| default_output(input));
     let files = Files { report: a.report.clone(), sheet: a.sheet.clone(), preview: a.preview.clone() };
-    let done = solve_one(input, &output, &files, &job, a.force)?;
+    let done = with_spinner(a.quiet, &format!("solving {}", input.display()), || {
+        solve_one(input, &output, &files, &job, a.force)
+    })?;
     let input_name = input.display().to_string();
     let outcome = &done.outcome;
     let r = &outcome.reading;
