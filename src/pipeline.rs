@@ -14,7 +14,7 @@ use crate::error::Error;
 use crate::layout::{LayoutOptions, Placement, layout};
 use crate::model::ModelError;
 use crate::read::{ReadOptions, Reading, read, scan_options};
-use crate::solve::{Condition, Form, Solution, SolveOptions, solve_with};
+use crate::solve::{Condition, Form, Solution, SolveOptions, follow_sketch, solve_with};
 use crate::units::{ForceUnit, LengthUnit, Units};
 use crate::write::{OutputLayers, Plan, Summary, WriteError, plan};
 
@@ -197,7 +197,11 @@ pub fn prepare(bytes: &[u8], job: &Job) -> Result<(Outcome, Plan), Error> {
     }
     let conditions = conditions(&job.given, job.form, units)?;
     let carried = carry(&reading.structure, &reading.hangers);
-    let mut solution = solve_with(&carried.structure, job.form, &conditions, &options)?;
+    // A sketch supplies the conditions the user left out, or is compared.
+    let mut solution = match &reading.sketch {
+        Some(sketch) => follow_sketch(&carried.structure, job.form, &conditions, &sketch.points, &options)?,
+        None => solve_with(&carried.structure, job.form, &conditions, &options)?,
+    };
     solution.warnings.extend(sanity(&reading, &conditions));
     let mut layout_options = job.layout;
     layout_options.self_weight = options.self_weight;

@@ -13,4 +13,5 @@ mod hostile;
 mod outside;
 mod regressions;
 mod roundtrip;
+mod sketch;
 mod util;
