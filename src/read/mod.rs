@@ -959,4 +959,28 @@ mod tests {
         assert_eq!(label_line("30 kN\n45 kN"), "30 kN 45 kN");
         assert_eq!(label_line("  85   kN "), "85 kN");
     }
+
+    #[test]
+    fn the_sketch_is_one_chain_and_separate_pieces_are_named() {
+        let base = [point(0.0, 0.0), point(10.0, 0.0), line("LOADS", (5.0, 1.0), (5.0, 2.0)), text((5.2, 1.5), "5 kN")];
+        // Two LINEs meeting end to end (one reversed) are one sketch.
+        let joined =
+            [base.concat(), line("SKETCH", (0.0, 0.0), (5.0, -2.0)), line("SKETCH", (10.0, 0.0), (5.0, -2.0))].concat();
+        let r = read_str(&drawing(&joined), &ReadOptions::default()).unwrap();
+        let s = r.sketch.expect("a sketch");
+        assert_eq!(s.points.len(), 3);
+        assert_eq!(s.from.len(), 2);
+        // Two apart: an error naming both.
+        let apart =
+            [base.concat(), line("SKETCH", (0.0, 0.0), (4.0, -2.0)), line("SKETCH", (6.0, -2.0), (10.0, 0.0))].concat();
+        let e = read_str(&drawing(&apart), &ReadOptions::default()).unwrap_err().to_string();
+        assert!(e.contains("2 pieces") && e.matches("SKETCH").count() >= 3, "{e}");
+        // No sketch layer: no sketch; a renamed one must exist.
+        assert!(read_str(&two_loads(["1 kN", "2 kN"]), &ReadOptions::default()).unwrap().sketch.is_none());
+        let mut o = ReadOptions::default();
+        o.layers.sketch = "IDEA".into();
+        o.layers.sketch_required = true;
+        let e = read_str(&two_loads(["1 kN", "2 kN"]), &o).unwrap_err().to_string();
+        assert!(e.contains("IDEA") && e.contains("--layer sketch=NAME"), "{e}");
+    }
 }
