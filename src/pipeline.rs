@@ -14,7 +14,7 @@ use crate::error::Error;
 use crate::layout::{Additions, LayoutOptions, Placement, Role, Shape, Variant, compare, layout_with_notes};
 use crate::model::ModelError;
 use crate::read::{ReadOptions, Reading, read, scan_options};
-use crate::solve::{Condition, Form, Solution, SolveOptions, solve_with};
+use crate::solve::{Condition, Form, Solution, SolveOptions, follow_sketch, solve_with};
 use crate::units::{ForceUnit, LengthUnit, Units};
 use crate::write::{OutputLayers, Plan, Summary, WriteError, plan};
 
@@ -269,7 +269,7 @@ pub fn prepare(bytes: &[u8], job: &Job) -> Result<(Outcome, Plan), Error> {
     }
     if job.alternatives.is_empty() {
         let conditions = conditions(&job.given, job.form, units)?;
-        let mut solution = solve_with(&carried.structure, job.form, &conditions, &options)?;
+        let mut solution = solve_drawn(&reading, &carried, job.form, &conditions, &options)?;
         solution.warnings.extend(sanity(&reading, &conditions));
         let sizing = job.sizing.as_ref().map(|spec| size_members(spec, &carried, &solution)).transpose()?;
         let notes = sizing.as_ref().map(|s| crate::sizing::summary_lines(s, units.force)).unwrap_or_default();
@@ -297,7 +297,7 @@ pub fn prepare(bytes: &[u8], job: &Job) -> Result<(Outcome, Plan), Error> {
         all.push(*given);
         let conditions = conditions(&all, job.form, units)?;
         let name = given.tag();
-        let mut solution = solve_with(&carried.structure, job.form, &conditions, &options)
+        let mut solution = solve_drawn(&reading, &carried, job.form, &conditions, &options)
             .map_err(|e| Error::Condition(format!("alternative {name}: {e}")))?;
         solution.warnings.extend(sanity(&reading, &conditions));
         alternatives.push(Alternative { name, given: *given, solution });
@@ -346,6 +346,21 @@ pub fn prepare(bytes: &[u8], job: &Job) -> Result<(Outcome, Plan), Error> {
     let solution = alternatives[0].solution.clone();
     let sizing = job.sizing.as_ref().map(|spec| size_members(spec, &carried, &solution)).transpose()?;
     Ok((Outcome { reading, carried, solution, placement, summary, alternatives, sizing, additions }, plan))
+}
+
+/// Solves the carried structure under `conditions`; a sketch on the drawing
+/// supplies the conditions left out, or is compared with the result.
+fn solve_drawn(
+    reading: &Reading,
+    carried: &Carried,
+    form: Form,
+    conditions: &[Condition],
+    options: &SolveOptions,
+) -> Result<Solution, crate::solve::SolveError> {
+    match &reading.sketch {
+        Some(sketch) => follow_sketch(&carried.structure, form, conditions, &sketch.points, options),
+        None => solve_with(&carried.structure, form, conditions, options),
+    }
 }
 
 /// Sizes the members of `solution` (segments named in Bow's notation, as in

@@ -340,6 +340,9 @@ pub struct Report {
     /// The force diagram.
     #[serde(skip_serializing_if = "Option::is_none")]
     pub force_diagram: Option<DiagramOut>,
+    /// The designer's sketch against the profile, when one was drawn.
+    #[serde(skip_serializing_if = "Option::is_none")]
+    pub sketch: Option<SketchOut>,
     /// Self-checks.
     pub checks: Checks,
     /// Warnings from reading and solving.
@@ -358,6 +361,24 @@ pub fn outcome_report(input: &str, outcome: &crate::pipeline::Outcome) -> Report
     let mut r = report(input, &outcome.reading, &outcome.carried, &outcome.solution, Some(&outcome.placement));
     r.sizing.clone_from(&outcome.sizing);
     r.with_alternatives(&outcome.alternatives)
+}
+
+/// The sketch's vertical deviations from the profile (sketch minus profile,
+/// as magnitudes), in the drawing's length unit.
+#[derive(Clone, Debug, PartialEq, Serialize)]
+pub struct SketchOut {
+    /// `fitted` (the sketch supplied conditions) or `compared` (three were given).
+    pub mode: &'static str,
+    /// Vertices of the sketch between the supports, the ones measured.
+    pub points_used: usize,
+    /// Root mean square deviation.
+    pub rms: f64,
+    /// Largest deviation.
+    pub max: f64,
+    /// The vertex where it occurs.
+    pub at: Xy,
+    /// The conditions the sketch supplied.
+    pub conditions_supplied: Vec<UsedCondition>,
 }
 
 /// Builds the report.
@@ -459,6 +480,14 @@ pub fn report(
         clearance: crate::solve::clearance(st, solution),
         conditions: solution.conditions.clone(),
         force_diagram: placement.map(|p| DiagramOut { scale: p.force_scale, at: p.diagram_at.into() }),
+        sketch: solution.sketch.as_ref().map(|f| SketchOut {
+            mode: if f.fitted { "fitted" } else { "compared" },
+            points_used: f.points_used,
+            rms: f.rms,
+            max: f.max,
+            at: f.at.into(),
+            conditions_supplied: f.conditions_supplied.clone(),
+        }),
         checks: solution.checks,
         warnings,
         sizing: None,

@@ -48,6 +48,19 @@ fn extra_line(structure: &Structure, s: &Solution) -> String {
     line
 }
 
+/// The sketch's deviation from the profile, when a sketch was followed.
+fn sketch_line(structure: &Structure, s: &Solution) -> Option<String> {
+    let f = s.sketch.as_ref()?;
+    let u = structure.units().length;
+    let what = if f.fitted { "Nearest funicular to the sketch" } else { "Sketch against the profile" };
+    Some(format!(
+        "{what}: rms {} {u}, largest {} {u} at x = {}",
+        fmt_length(f.rms, u),
+        fmt_length(f.max, u),
+        fmt_length(f.at.x, u)
+    ))
+}
+
 /// The scale in words, with a round drawing length that stands for at
 /// least one force unit: "1 m = 20 kN", "100 mm = 5 kN".
 #[must_use]
@@ -174,6 +187,7 @@ pub(super) fn diagram_items(
         extra_line(structure, s),
     ];
     notes.extend(extra.iter().cloned());
+    notes.extend(sketch_line(structure, s));
     notes.push(CAUTION.to_string());
     for (i, line) in notes.into_iter().enumerate() {
         let y = yb - 3.5 * th - i as f64 * 1.6 * th;

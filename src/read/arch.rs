@@ -213,7 +213,12 @@ pub fn read_arch(file: &File<'_>, options: &ArchReadOptions) -> Result<ArchReadi
 ///
 /// A face must be one open chain: every piece meets the next at an end
 /// (within `gap`), and no three ends meet at one point.
-fn chain(name: &str, layer: &str, mut pieces: Vec<(Vec<Point>, Origin)>, gap: f64) -> Result<FaceRead, ReadError> {
+pub(crate) fn chain(
+    name: &str,
+    layer: &str,
+    mut pieces: Vec<(Vec<Point>, Origin)>,
+    gap: f64,
+) -> Result<FaceRead, ReadError> {
     let Some((first, origin)) = pieces.pop() else {
         return Err(ReadError::Geometry {
             origin: format!("layer {layer}"),

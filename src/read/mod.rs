@@ -10,6 +10,9 @@
 //!   −y axis (rotation 0: straight down), its magnitude in an attribute or,
 //!   failing that, in the nearest text.
 //! * `DECK` (optional): LINE, ARC, LWPOLYLINE or POLYLINE of the deck.
+//! * `SKETCH` (optional): the designer's intended shape, one LWPOLYLINE,
+//!   POLYLINE, SPLINE or chain of LINEs and ARCs meeting end to end; its
+//!   vertices are what the fit measures.
 //!
 //! Only model-space entities count. Entities of other types on these layers
 //! are passed over and counted in a warning. [`mtext`] strips formatting
@@ -48,6 +51,10 @@ pub struct InputLayers {
     pub hangers: String,
     /// True when the hangers layer was named by the user.
     pub hangers_required: bool,
+    /// The designer's sketch of the intended shape.
+    pub sketch: String,
+    /// True when the sketch layer was named by the user (then it must exist).
+    pub sketch_required: bool,
 }
 
 impl Default for InputLayers {
@@ -59,6 +66,8 @@ impl Default for InputLayers {
             deck_required: false,
             hangers: "HANGERS".into(),
             hangers_required: false,
+            sketch: "SKETCH".into(),
+            sketch_required: false,
         }
     }
 }
@@ -133,6 +142,15 @@ pub struct StretchRead {
     pub w1: f64,
 }
 
+/// The designer's sketch as read: one chain of vertices.
+#[derive(Clone, Debug, PartialEq)]
+pub struct Sketch {
+    /// The vertices in order along the chain (either direction).
+    pub points: Vec<Point>,
+    /// The entities it came from, in chain order.
+    pub from: Vec<Origin>,
+}
+
 /// Everything read from a drawing.
 #[derive(Clone, Debug)]
 pub struct Reading {
@@ -144,6 +162,8 @@ pub struct Reading {
     pub distributed: Vec<StretchRead>,
     /// Hanger or post positions from the hangers layer: x and where drawn, sorted.
     pub hangers: Vec<(f64, Origin)>,
+    /// The designer's sketch, when the sketch layer holds one.
+    pub sketch: Option<Sketch>,
     /// The drawing's model-space extents (without the tool's own layers).
     pub extents: Option<Rect>,
     /// The drawing's release.
@@ -206,7 +226,13 @@ pub enum ReadError {
 #[must_use]
 pub fn scan_options<'a>(layers: &InputLayers, extra: impl Iterator<Item = &'a str>) -> ScanOptions {
     let extra: Vec<String> = extra.map(String::from).collect();
-    let mut keep = vec![layers.supports.clone(), layers.loads.clone(), layers.deck.clone(), layers.hangers.clone()];
+    let mut keep = vec![
+        layers.supports.clone(),
+        layers.loads.clone(),
+        layers.deck.clone(),
+        layers.hangers.clone(),
+        layers.sketch.clone(),
+    ];
     keep.extend(extra.iter().cloned());
     // The layers of design alternatives: a tool layer's name, a hyphen and more.
     let keep_prefixes = extra.iter().map(|n| format!("{n}-")).collect();
@@ -257,6 +283,9 @@ pub fn read(file: &File<'_>, options: &ReadOptions) -> Result<Reading, ReadError
     drawing.require("loads", "loads", &layers.loads)?;
     if layers.deck_required {
         drawing.require("deck", "deck", &layers.deck)?;
+    }
+    if layers.sketch_required {
+        drawing.require("sketch", "sketch", &layers.sketch)?;
     }
     if file.paper_space_kept > 0 {
         warnings.push(format!(
@@ -330,6 +359,7 @@ pub fn read(file: &File<'_>, options: &ReadOptions) -> Result<Reading, ReadError
     }
     ignored.warn(&layers.deck, &mut warnings);
     let deck = (!deck.segments.is_empty()).then_some(deck);
+    let sketch = read_sketch(file, &layers.sketch, tolerance, &mut warnings)?;
 
     let units = Units { length, force: force_unit };
     let structure = Structure::new(units, supports, loads, distributed, deck, &layers.supports)?;
@@ -340,6 +370,7 @@ pub fn read(file: &File<'_>, options: &ReadOptions) -> Result<Reading, ReadError
         loads: reads,
         distributed: stretches,
         hangers,
+        sketch,
         extents,
         release: file.release,
         binary: file.format != Format::Ascii,
@@ -348,6 +379,52 @@ pub fn read(file: &File<'_>, options: &ReadOptions) -> Result<Reading, ReadError
         layers: drawing.table,
         warnings,
     })
+}
+
+/// The sketch on `layer`: `None` when the layer holds no line; one chain of
+/// pieces meeting end to end (within the drawing's diagonal × 1e-7, as for
+/// an arch's faces); several apart are an error naming them.
+fn read_sketch(
+    file: &File<'_>,
+    layer: &str,
+    tolerance: f64,
+    warnings: &mut Vec<String>,
+) -> Result<Option<Sketch>, ReadError> {
+    let drawing = DrawingLayers::new(file);
+    let mut pieces = Vec::new();
+    let mut ignored = Ignored::default();
+    for e in drawing.on(layer) {
+        let d = drawn(file, e, tolerance);
+        let o = drawn::origin(e, drawn::position(&d));
+        check_finite(&d, &o)?;
+        match d {
+            Drawn::Line(l) if l.p0 != l.p1 => pieces.push((vec![l.p0, l.p1], o)),
+            Drawn::Path(p) if p.len() >= 2 => pieces.push((p, o)),
+            other => ignored.add(&other),
+        }
+    }
+    ignored.warn(layer, warnings);
+    match pieces.len() {
+        0 => Ok(None),
+        1 => {
+            let (points, o) = pieces.remove(0);
+            Ok(Some(Sketch { points, from: vec![o] }))
+        }
+        n => {
+            let gap = file.extents.rect().map_or(1e-9, |r| (r.width().hypot(r.height()) * 1e-7).max(1e-9));
+            let names: Vec<String> = pieces.iter().map(|(_, o)| o.to_string()).take(10).collect();
+            match arch::chain("sketch", layer, pieces, gap) {
+                Ok(face) => Ok(Some(Sketch { points: face.points, from: face.from })),
+                Err(_) => Err(ReadError::Geometry {
+                    origin: format!("layer {layer}"),
+                    problem: format!(
+                        "the sketch must be one line, but its {n} pieces ({}) do not join end to end into one open line; join them into one polyline, or move all but one off the layer",
+                        names.join("; ")
+                    ),
+                }),
+            }
+        }
+    }
 }
 
 /// The drawing's length unit and how it was decided: `--units`, else
@@ -883,5 +960,29 @@ mod tests {
         assert_eq!(label_line("hanger H4\n30 kN"), "30 kN");
         assert_eq!(label_line("30 kN\n45 kN"), "30 kN 45 kN");
         assert_eq!(label_line("  85   kN "), "85 kN");
+    }
+
+    #[test]
+    fn the_sketch_is_one_chain_and_separate_pieces_are_named() {
+        let base = [point(0.0, 0.0), point(10.0, 0.0), line("LOADS", (5.0, 1.0), (5.0, 2.0)), text((5.2, 1.5), "5 kN")];
+        // Two LINEs meeting end to end (one reversed) are one sketch.
+        let joined =
+            [base.concat(), line("SKETCH", (0.0, 0.0), (5.0, -2.0)), line("SKETCH", (10.0, 0.0), (5.0, -2.0))].concat();
+        let r = read_str(&drawing(&joined), &ReadOptions::default()).unwrap();
+        let s = r.sketch.expect("a sketch");
+        assert_eq!(s.points.len(), 3);
+        assert_eq!(s.from.len(), 2);
+        // Two apart: an error naming both.
+        let apart =
+            [base.concat(), line("SKETCH", (0.0, 0.0), (4.0, -2.0)), line("SKETCH", (6.0, -2.0), (10.0, 0.0))].concat();
+        let e = read_str(&drawing(&apart), &ReadOptions::default()).unwrap_err().to_string();
+        assert!(e.contains("2 pieces") && e.matches("SKETCH").count() >= 3, "{e}");
+        // No sketch layer: no sketch; a renamed one must exist.
+        assert!(read_str(&two_loads(["1 kN", "2 kN"]), &ReadOptions::default()).unwrap().sketch.is_none());
+        let mut o = ReadOptions::default();
+        o.layers.sketch = "IDEA".into();
+        o.layers.sketch_required = true;
+        let e = read_str(&two_loads(["1 kN", "2 kN"]), &o).unwrap_err().to_string();
+        assert!(e.contains("IDEA") && e.contains("--layer sketch=NAME"), "{e}");
     }
 }

@@ -234,7 +234,7 @@ fn bad(namer: &Namer, c: &Cond, problem: String) -> SolveError {
 }
 
 /// Checks one user condition's value against the structure.
-fn check_value(structure: &Structure, namer: &Namer, c: &Cond) -> Result<(), SolveError> {
+pub(crate) fn check_value(structure: &Structure, namer: &Namer, c: &Cond) -> Result<(), SolveError> {
     let (xl, xr) = (structure.left().x(), structure.right().x());
     let span_text = format!("from x = {} to x = {}", fmt_num(xl), fmt_num(xr));
     match *c {

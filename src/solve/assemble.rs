@@ -110,6 +110,7 @@ pub(crate) fn build(
         at_supports: [0.0, 0.0],
         checks,
         warnings,
+        sketch: None,
     })
 }
 

@@ -858,6 +858,7 @@ impl<'a> Setup<'a> {
             at_supports,
             checks,
             warnings,
+            sketch: None,
         })
     }
 

@@ -24,6 +24,8 @@
 //! * `inclined`: any inclined load — Newton's method on the `construction`
 //!   itself, started from the vertical-component problem.
 //! * `assemble`: the reported solution and its self-checks (`closed_form`).
+//! * `sketch`: the funicular nearest to a drawn sketch (linear least squares
+//!   under the conditions), handed to the solve as conditions.
 //! * `continuous`: distributed loads (exact, through `loading`), the
 //!   length conditions, and with `selfweight` the profile's own weight —
 //!   see [`solve_with`].
@@ -50,12 +52,14 @@ mod num;
 mod residual;
 mod roots;
 mod selfweight;
+mod sketch;
 mod types;
 
 #[cfg(test)]
 mod tests;
 
 pub use clearance::{Clearance, clearance};
+pub use sketch::follow_sketch;
 pub use types::*;
 
 use crate::model::Structure;

@@ -239,6 +239,30 @@ pub struct Solution {
     pub checks: Checks,
     /// Things the user should know (a second solution exists, …).
     pub warnings: Vec<String>,
+    /// How far the designer's sketch lies from this profile, when one was
+    /// followed ([`super::follow_sketch`]).
+    pub sketch: Option<SketchFit>,
+}
+
+/// The designer's sketch against the funicular: vertical deviations of the
+/// sketch's vertices from the profile, in the structure's length unit.
+#[derive(Clone, Debug, PartialEq)]
+pub struct SketchFit {
+    /// Vertices of the sketch on the span (between the supports' x), the
+    /// ones measured.
+    pub points_used: usize,
+    /// Root mean square of the deviations.
+    pub rms: f64,
+    /// The largest deviation (magnitude).
+    pub max: f64,
+    /// The sketch's vertex where the largest deviation occurs.
+    pub at: Point,
+    /// The conditions the sketch supplied (the least-squares fit turned into
+    /// conditions of the normal solve); empty when the user's conditions were
+    /// three already and the sketch was only compared.
+    pub conditions_supplied: Vec<UsedCondition>,
+    /// True when the profile was fitted to the sketch, false when only compared.
+    pub fitted: bool,
 }
 
 impl Solution {
@@ -283,6 +307,13 @@ pub enum SolveError {
     BadValue {
         /// The condition, described.
         condition: String,
+        /// What is wrong and what to do.
+        problem: String,
+    },
+    /// A sketch that cannot be followed (too few vertices on the span, bent
+    /// the wrong way, or with conditions or loads that make the fit nonlinear).
+    #[error("the sketch: {problem}")]
+    Sketch {
         /// What is wrong and what to do.
         problem: String,
     },

@@ -17,4 +17,5 @@ mod regressions;
 mod roundtrip;
 mod sheet;
 mod sizing;
+mod sketch;
 mod util;

@@ -93,7 +93,8 @@ pub enum Command {
 #[derive(Debug, Args)]
 pub struct ReadArgs {
     /// Rename a layer: ROLE=NAME, repeatable. Input roles: supports, loads,
-    /// deck, hangers (hanger or post positions for distributed loads);
+    /// deck, hangers (hanger or post positions for distributed loads),
+    /// sketch (the intended shape to follow);
     /// output roles: profile, hangers, diagram, forces, dimensions, bow,
     /// notes. (The input role `hangers` is renamed with `--layer
     /// hangers=NAME`; the output layer of the drawn hangers with `--layer
@@ -514,23 +515,28 @@ impl ReadArgs {
     /// Checks the reading options; also returns the output layer names.
     pub fn options(&self) -> Result<(ReadOptions, OutputLayers)> {
         let mut input = InputLayers::default();
-        let output = layer_specs(&self.layers, "supports, loads, deck, hangers", "loads=LASTEN", |role, name| {
-            match role {
-                "supports" => input.supports = name.into(),
-                "loads" => input.loads = name.into(),
-                "deck" => {
-                    input.deck = name.into();
-                    input.deck_required = true;
+        let output =
+            layer_specs(&self.layers, "supports, loads, deck, hangers, sketch", "loads=LASTEN", |role, name| {
+                match role {
+                    "supports" => input.supports = name.into(),
+                    "loads" => input.loads = name.into(),
+                    "deck" => {
+                        input.deck = name.into();
+                        input.deck_required = true;
+                    }
+                    "hangers" => {
+                        input.hangers = name.into();
+                        input.hangers_required = true;
+                    }
+                    "sketch" => {
+                        input.sketch = name.into();
+                        input.sketch_required = true;
+                    }
+                    _ => return false,
                 }
-                "hangers" => {
-                    input.hangers = name.into();
-                    input.hangers_required = true;
-                }
-                _ => return false,
-            }
-            true
-        })?;
-        distinct(&output, &[&input.supports, &input.loads, &input.deck, &input.hangers])?;
+                true
+            })?;
+        distinct(&output, &[&input.supports, &input.loads, &input.deck, &input.hangers, &input.sketch])?;
         let load_scale = match &self.load_scale {
             Some(s) => {
                 let f = parse_force(s, "--load-scale")?;

@@ -17,6 +17,7 @@ use args::{AssessArgs, Cli, Command, InspectArgs, SolveArgs};
 use hangline::layout::assess::ASSESS_CAUTION;
 use hangline::layout::nice::{fmt_force, fmt_length, member_name};
 use hangline::layout::result_line;
+use hangline::model::fmt_num;
 use hangline::pipeline::assess::{AssessOutcome, prepare_assess};
 use hangline::pipeline::{self, Job};
 use hangline::report::assess::assess_report;
@@ -495,10 +496,14 @@ fn solve(a: &SolveArgs) -> Result<bool> {
     let conds: Vec<String> = s
         .conditions
         .iter()
-        .map(|c| match (c.point, c.value) {
-            (Some(p), _) => format!("{} ({}, {})", c.kind, p[0], p[1]),
-            (None, Some(v)) => format!("{} {v}", c.kind),
-            _ => c.kind.to_string(),
+        .map(|c| {
+            let text = match (c.point, c.value) {
+                (Some(p), _) => format!("{} ({}, {})", c.kind, fmt_num(p[0]), fmt_num(p[1])),
+                (None, Some(v)) => format!("{} {}", c.kind, fmt_num(v)),
+                _ => c.kind.to_string(),
+            };
+            let supplied = s.sketch.as_ref().is_some_and(|f| f.conditions_supplied.contains(c));
+            if supplied { format!("{text} (from the sketch)") } else { text }
         })
         .collect();
     say(q, &format!("solved  {} with {}", s.form, conds.join(", ")));

@@ -14,6 +14,7 @@ mod length;
 mod props;
 mod props_continuous;
 mod references;
+mod sketch;
 mod towers;
 
 use kurbo::{Point, Vec2};
