@@ -330,6 +330,14 @@ pub fn prepare(bytes: &[u8], job: &Job) -> Result<(Outcome, Plan), Error> {
                 (Role::Notes, _) => {}
                 (Role::LoadDiagram, _) if k > 0 => {}
                 (Role::LoadDiagram, _) => additions.items.push(item),
+                // Each pole says whose it is.
+                (_, Shape::Text(t)) if t.content.ends_with("(pole)") || t.content == "pole" => {
+                    let mut item = item.clone();
+                    if let Shape::Text(t) = &mut item.shape {
+                        t.content = format!("{} ({})", t.content.trim_end_matches(" (pole)"), a.given.words());
+                    }
+                    own.push(item);
+                }
                 _ => own.push(item),
             }
         }
