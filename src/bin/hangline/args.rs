@@ -32,7 +32,11 @@ Examples:
 
 Each fixed support point (POINT, CIRCLE or INSERT on the supports layer)
 counts as one condition; a tower axis (vertical LINE) counts as none.
-Exactly three conditions are needed in all.";
+Exactly three conditions are needed in all.
+Any one condition may take a list of values (--sag 4,6,8): one design
+alternative per value, each on layers of its own, compared in a table.
+A polyline on the SKETCH layer supplies the conditions left out: the
+funicular nearest to it is found.";
 
 const ASSESS_EXAMPLES: &str = "\
 Examples:
