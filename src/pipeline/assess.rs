@@ -323,11 +323,19 @@ fn live_factor(ring: &Ring, live: Live, units: Units) -> Result<LiveResult, Erro
             let mut sweep = Vec::new();
             let mut skipped = Vec::new();
             let mut worst: Option<LiveResult> = None;
-            for &(a, b) in &ranges {
-                let x = 0.5 * (a + b);
-                let Some((block, loads)) = live_at(ring, &ranges, x, p) else { continue };
+            // The places are independent programmes: solved in parallel,
+            // then read in order (the same result on any number of cores).
+            use rayon::prelude::*;
+            let tried: Vec<_> = ranges
+                .par_iter()
+                .map(|&(a, b)| {
+                    let x = 0.5 * (a + b);
+                    live_at(ring, &ranges, x, p).map(|(block, loads)| (x, block, thrust::load_factor(ring, &loads)))
+                })
+                .collect();
+            for (x, block, result) in tried.into_iter().flatten() {
                 // One place the solver cannot settle does not stop the sweep.
-                let factor = match thrust::load_factor(ring, &loads) {
+                let factor = match result {
                     Ok(f) => f,
                     Err(e @ thrust::ThrustError::Solver { .. }) => {
                         skipped.push(format!("x = {} ({e})", crate::model::fmt_num(x)));
