@@ -59,13 +59,7 @@ pub struct ArchReadOptions {
 }
 
 /// A face as read: the chained points, and the entities it came from.
-#[derive(Clone, Debug, PartialEq)]
-pub struct FaceRead {
-    /// The face's points in order along the chain (either direction).
-    pub points: Vec<Point>,
-    /// The entities, in chain order.
-    pub from: Vec<Origin>,
-}
+pub type FaceRead = super::Chain;
 
 /// Everything read from a drawing of an arch.
 #[derive(Clone, Debug)]

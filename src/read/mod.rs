@@ -142,14 +142,18 @@ pub struct StretchRead {
     pub w1: f64,
 }
 
-/// The designer's sketch as read: one chain of vertices.
+/// A polyline as read from pieces drawn end to end (an arch's face, the
+/// designer's sketch): its vertices and the entities they came from.
 #[derive(Clone, Debug, PartialEq)]
-pub struct Sketch {
+pub struct Chain {
     /// The vertices in order along the chain (either direction).
     pub points: Vec<Point>,
     /// The entities it came from, in chain order.
     pub from: Vec<Origin>,
 }
+
+/// The designer's sketch as read: one chain of vertices.
+pub type Sketch = Chain;
 
 /// Everything read from a drawing.
 #[derive(Clone, Debug)]
@@ -414,7 +418,7 @@ fn read_sketch(
             let gap = file.extents.rect().map_or(1e-9, |r| (r.width().hypot(r.height()) * 1e-7).max(1e-9));
             let names: Vec<String> = pieces.iter().map(|(_, o)| o.to_string()).take(10).collect();
             match arch::chain("sketch", layer, pieces, gap) {
-                Ok(face) => Ok(Some(Sketch { points: face.points, from: face.from })),
+                Ok(face) => Ok(Some(face)),
                 Err(_) => Err(ReadError::Geometry {
                     origin: format!("layer {layer}"),
                     problem: format!(
