@@ -183,6 +183,34 @@ pub fn markdown(r: &Report, picture: Picture<'_>) -> String {
 
     s.push_str("\n## 5. Checks\n\n");
     let _ = writeln!(s, "- Equilibrium at every node: largest imbalance {} of the total load", n(r.checks.equilibrium));
+    // Node by node, from the sheet's own numbers, so that a checker can
+    // follow it: the two segment forces (tension positive, pulling the node
+    // toward the far end) and the load add up to the residual shown.
+    if r.loads.len() + 2 == r.nodes.len() && r.segments.len() + 1 == r.nodes.len() {
+        let _ = writeln!(
+            s,
+            "\n| node of load | load x | load y | residual x ({fu}) | residual y ({fu}) |\n| --- | ---: | ---: | ---: | ---: |"
+        );
+        for (k, l) in r.loads.iter().enumerate() {
+            let (a, p, b) = (&r.nodes[k], &r.nodes[k + 1], &r.nodes[k + 2]);
+            let pull = |q: &crate::report::Xy, force: f64| {
+                let (dx, dy) = (q.x - p.x, q.y - p.y);
+                let len = dx.hypot(dy);
+                if len > 0.0 { (force * dx / len, force * dy / len) } else { (0.0, 0.0) }
+            };
+            let (lx, ly) = pull(a, r.segments[k].force);
+            let (rx, ry) = pull(b, r.segments[k + 1].force);
+            let _ = writeln!(
+                s,
+                "| {} | {} | {} | {} | {} |",
+                l.name,
+                n(l.force.x),
+                n(l.force.y),
+                n(lx + rx + l.force.x),
+                n(ly + ry + l.force.y)
+            );
+        }
+    }
     if let Some(c) = r.checks.closed_form {
         let _ = writeln!(
             s,
@@ -272,6 +300,18 @@ mod tests {
         for seg in &r.segments {
             assert!(md.contains(&format!("| {} |", seg.name)), "{} in {md}", seg.name);
         }
+        // The node-by-node table: one row per load, residuals at round-off.
+        let rows: Vec<&str> =
+            md.lines().skip_while(|l| !l.contains("residual x")).skip(2).take_while(|l| l.starts_with("| ")).collect();
+        let residuals: Vec<f64> = rows
+            .iter()
+            .filter_map(|l| {
+                let c: Vec<&str> = l.split('|').map(str::trim).collect();
+                Some(c[4].parse::<f64>().ok()?.abs().max(c[5].parse::<f64>().ok()?.abs()))
+            })
+            .collect();
+        assert_eq!(residuals.len(), r.loads.len(), "{md}");
+        assert!(residuals.iter().all(|&x| x < 1e-9), "{residuals:?}");
         let page = html(&r, Picture::Inline { svg: "<?xml version=\"1.0\"?><svg id=\"x\"></svg>", link: "t.svg" });
         assert!(page.contains("<table>") && page.contains("<svg id=\"x\">") && !page.contains("<?xml"));
         assert!(page.contains("11.18034"));
