@@ -11,7 +11,9 @@ use kurbo::Point;
 use crate::carry::{Carried, carry};
 use crate::dxf::File;
 use crate::error::Error;
-use crate::layout::{Additions, LayoutOptions, Placement, Role, Shape, Variant, compare, layout_with_notes};
+use crate::layout::{
+    Additions, Annotations, LayoutOptions, Placement, Role, Shape, Variant, compare, layout_with_notes,
+};
 use crate::model::ModelError;
 use crate::read::{ReadOptions, Reading, read, scan_options};
 use crate::solve::{Condition, Form, Solution, SolveOptions, follow_sketch, solve_with};
@@ -279,7 +281,7 @@ pub fn prepare(bytes: &[u8], job: &Job) -> Result<(Outcome, Plan), Error> {
             &solution,
             reading.extents,
             &layout_options,
-            &notes,
+            &Annotations { notes: &notes, pole: None },
         );
         let (plan, summary) = plan(&file, &additions, &job.layers)?;
         return Ok((
@@ -302,23 +304,24 @@ pub fn prepare(bytes: &[u8], job: &Job) -> Result<(Outcome, Plan), Error> {
         solution.warnings.extend(sanity(&reading, &conditions));
         alternatives.push(Alternative { name, given: *given, solution });
     }
-    let first = |o: &LayoutOptions, a: &Alternative| {
-        layout_with_notes(&carried.structure, &reading.structure, &a.solution, reading.extents, o, &[])
+    let lay = |o: &LayoutOptions, a: &Alternative| {
+        let words = a.given.words();
+        let annotations = Annotations { notes: &[], pole: Some(&words) };
+        layout_with_notes(&carried.structure, &reading.structure, &a.solution, reading.extents, o, &annotations)
     };
     // The coarsest scale fits every pole; the first alternative's diagram
     // place with it is everyone's.
-    let scale = alternatives.iter().map(|a| first(&layout_options, a).1.force_scale).fold(0.0, f64::max);
+    let scale = alternatives.iter().map(|a| lay(&layout_options, a).1.force_scale).fold(0.0, f64::max);
     let mut shared = layout_options;
     shared.force_scale = Some(scale);
-    let placement = first(&shared, &alternatives[0]).1;
+    let (base, placement) = lay(&shared, &alternatives[0]);
     shared.diagram_at = Some(placement.diagram_at);
-    let (base, _) = first(&shared, &alternatives[0]);
     let mut additions = Additions { items: Vec::new(), dim_style: base.dim_style, variants: Vec::new() };
     // The table goes where the notes would: left of and below every
     // alternative's diagram.
     let mut anchor = Point::new(f64::INFINITY, f64::INFINITY);
     for (k, a) in alternatives.iter().enumerate() {
-        let (adds, _) = first(&shared, a);
+        let (adds, _) = lay(&shared, a);
         let mut own = Vec::new();
         let mut top = f64::NEG_INFINITY;
         for item in adds.items {
@@ -330,14 +333,6 @@ pub fn prepare(bytes: &[u8], job: &Job) -> Result<(Outcome, Plan), Error> {
                 (Role::Notes, _) => {}
                 (Role::LoadDiagram, _) if k > 0 => {}
                 (Role::LoadDiagram, _) => additions.items.push(item),
-                // Each pole says whose it is.
-                (_, Shape::Text(t)) if t.content.ends_with("(pole)") || t.content == "pole" => {
-                    let mut item = item.clone();
-                    if let Shape::Text(t) = &mut item.shape {
-                        t.content = format!("{} ({})", t.content.trim_end_matches(" (pole)"), a.given.words());
-                    }
-                    own.push(item);
-                }
                 _ => own.push(item),
             }
         }

@@ -81,8 +81,9 @@ pub(super) fn diagram_items(
     top: f64,
     th: f64,
     options: &LayoutOptions,
-    extra: &[String],
+    annotations: &super::Annotations<'_>,
 ) -> (Vec<Item>, Placement) {
+    let extra = annotations.notes;
     let units = structure.units();
     let n = structure.loads().len();
     let pole_space = n + 1;
@@ -146,8 +147,11 @@ pub(super) fn diagram_items(
     items.push(item(Role::Diagram, Shape::Circle { center: pole, radius: 0.25 * th }));
     let out = pole - map(a0.midpoint(*s.load_line.last().unwrap_or(&a0)));
     let out = if out.hypot() > 0.0 { out / out.hypot() } else { Vec2::new(1.0, 0.0) };
-    let pole_label =
-        if continuous { "pole".to_string() } else { format!("{} (pole)", space_letter(pole_space).to_lowercase()) };
+    let pole_label = match (continuous, annotations.pole) {
+        (true, None) => "pole".to_string(),
+        (true, Some(words)) => format!("pole ({words})"),
+        (false, words) => format!("{} ({})", space_letter(pole_space).to_lowercase(), words.unwrap_or("pole")),
+    };
     let align = if out.x >= 0.0 { HAlign::Left } else { HAlign::Right };
     items.push(item(Role::Bow, text(pole + out * (1.0 * th), lh, pole_label, align, VAlign::Middle)));
     if let Some(c) = s.closing_point {

@@ -103,11 +103,20 @@ pub fn layout(
     extents: Option<Rect>,
     options: &LayoutOptions,
 ) -> (Additions, Placement) {
-    layout_with_notes(structure, drawn, solution, extents, options, &[])
+    layout_with_notes(structure, drawn, solution, extents, options, &Annotations::default())
 }
 
-/// [`layout`], with `notes` (e.g. the members' sizing) written under the
-/// force diagram's summary, before the caution.
+/// What a caller adds to the layout's own annotations.
+#[derive(Clone, Copy, Debug, Default)]
+pub struct Annotations<'a> {
+    /// Lines written under the force diagram's summary, before the caution
+    /// (e.g. the members' sizing).
+    pub notes: &'a [String],
+    /// Words added to the pole's label (a design alternative's condition).
+    pub pole: Option<&'a str>,
+}
+
+/// [`layout`], with the caller's `annotations`.
 #[must_use]
 pub fn layout_with_notes(
     structure: &Structure,
@@ -115,7 +124,7 @@ pub fn layout_with_notes(
     solution: &Solution,
     extents: Option<Rect>,
     options: &LayoutOptions,
-    notes: &[String],
+    annotations: &Annotations<'_>,
 ) -> (Additions, Placement) {
     let th = options.text_height.unwrap_or_else(|| text_height_for(structure.span()));
     let units = structure.units();
@@ -135,7 +144,7 @@ pub fn layout_with_notes(
         }
     }
     let top = solution.nodes.iter().map(|p| p.y).fold(f64::NEG_INFINITY, f64::max);
-    let (diagram, placement) = diagram::diagram_items(structure, solution, taken, top, th, options, notes);
+    let (diagram, placement) = diagram::diagram_items(structure, solution, taken, top, th, options, annotations);
     items.extend(diagram);
     (Additions { items, dim_style, variants: Vec::new() }, placement)
 }

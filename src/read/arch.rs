@@ -100,12 +100,7 @@ pub struct ArchReading {
 /// output layers, which the writer must see and the extents must skip).
 #[must_use]
 pub fn scan_options<'a>(layers: &ArchLayers, extra: impl Iterator<Item = &'a str>) -> ScanOptions {
-    let extra: Vec<String> = extra.map(String::from).collect();
-    let mut keep = vec![layers.intrados.clone(), layers.extrados.clone(), layers.fill.clone(), layers.loads.clone()];
-    keep.extend(extra.iter().cloned());
-    // The layers of design alternatives: a tool layer's name, a hyphen and more.
-    let keep_prefixes = extra.iter().map(|n| format!("{n}-")).collect();
-    ScanOptions { keep_layers: keep, skip_extents_layers: extra, keep_prefixes, ..ScanOptions::default() }
+    super::scan_layers(&[&layers.intrados, &layers.extrados, &layers.fill, &layers.loads], extra)
 }
 
 /// Reads an arch from a scanned drawing.
@@ -134,8 +129,7 @@ pub fn read_arch(file: &File<'_>, options: &ArchReadOptions) -> Result<ArchReadi
     // Ends closer than this are one point (snapped ends, round-off of arcs).
     let gap = (diagonal * 1e-7).max(1e-9);
 
-    let mut faces = Vec::new();
-    for (name, layer) in [("intrados", &layers.intrados), ("extrados", &layers.extrados)] {
+    let mut face = |name: &str, layer: &str| -> Result<FaceRead, ReadError> {
         let mut pieces = Vec::new();
         let mut ignored = Ignored::default();
         for e in on(layer) {
@@ -152,10 +146,10 @@ pub fn read_arch(file: &File<'_>, options: &ArchReadOptions) -> Result<ArchReadi
             }
         }
         ignored.warn(layer, &mut warnings);
-        faces.push(chain(name, layer, pieces, gap)?);
-    }
-    let extrados = faces.pop().expect("two faces");
-    let intrados = faces.pop().expect("two faces");
+        chain(name, layer, pieces, gap)
+    };
+    let intrados = face("intrados", &layers.intrados)?;
+    let extrados = face("extrados", &layers.extrados)?;
 
     let mut fill = Vec::new();
     let mut ignored = Ignored::default();

@@ -229,14 +229,15 @@ pub enum ReadError {
 /// output layers, which the writer must see and the extents must skip).
 #[must_use]
 pub fn scan_options<'a>(layers: &InputLayers, extra: impl Iterator<Item = &'a str>) -> ScanOptions {
+    let inputs = [&layers.supports, &layers.loads, &layers.deck, &layers.hangers, &layers.sketch];
+    scan_layers(&inputs, extra)
+}
+
+/// The scan options for `inputs` (read) and `extra` (the tool's output
+/// layers, which the writer must see and the extents must skip).
+pub(crate) fn scan_layers<'a>(inputs: &[&String], extra: impl Iterator<Item = &'a str>) -> ScanOptions {
     let extra: Vec<String> = extra.map(String::from).collect();
-    let mut keep = vec![
-        layers.supports.clone(),
-        layers.loads.clone(),
-        layers.deck.clone(),
-        layers.hangers.clone(),
-        layers.sketch.clone(),
-    ];
+    let mut keep: Vec<String> = inputs.iter().map(|s| (*s).clone()).collect();
     keep.extend(extra.iter().cloned());
     // The layers of design alternatives: a tool layer's name, a hyphen and more.
     let keep_prefixes = extra.iter().map(|n| format!("{n}-")).collect();

@@ -31,6 +31,20 @@ pub(crate) enum Cond {
     Unstressed(f64),
 }
 
+impl From<Condition> for Cond {
+    fn from(c: Condition) -> Cond {
+        match c {
+            Condition::Through(p) => Cond::Through(p),
+            Condition::Thrust(h) => Cond::Thrust(h),
+            Condition::Sag(f) => Cond::Sag(f),
+            Condition::MaxForce(t) => Cond::MaxForce(t),
+            Condition::LevelAt(x) => Cond::LevelAt(x),
+            Condition::Length(l) => Cond::Length(l),
+            Condition::UnstressedLength(l) => Cond::Unstressed(l),
+        }
+    }
+}
+
 impl Cond {
     /// True for the conditions that fix a height of the profile; without one
     /// the whole polygon could slide up and down.
@@ -191,15 +205,7 @@ pub(crate) fn gather_with(
         conds.push(Cond::Right(p));
     }
     for g in given {
-        let c = match *g {
-            Condition::Through(p) => Cond::Through(p),
-            Condition::Thrust(h) => Cond::Thrust(h),
-            Condition::Sag(f) => Cond::Sag(f),
-            Condition::MaxForce(t) => Cond::MaxForce(t),
-            Condition::LevelAt(x) => Cond::LevelAt(x),
-            Condition::Length(l) => Cond::Length(l),
-            Condition::UnstressedLength(l) => Cond::Unstressed(l),
-        };
+        let c = Cond::from(*g);
         check_value(structure, &namer, &c)?;
         if let Cond::Unstressed(_) = c {
             if options.axial_stiffness.is_none() {

@@ -12,9 +12,6 @@ use super::residual::{max_ray, relative, sag};
 use super::types::{Checks, Form, NodeKind, Peak, Sag, Segment, Solution, SolveError, TowerFound};
 use crate::model::{Structure, Support, fmt_num};
 
-/// Self-check figures above this earn a warning.
-const CHECK_WARN: f64 = 1e-9;
-
 /// Builds the solution for `params`, adding to `warnings`.
 pub(crate) fn build(
     structure: &Structure,
@@ -65,17 +62,7 @@ pub(crate) fn build(
         closed_form: frame.vertical.then(|| closed_form::check(loads, &nodes, thrust, s)),
         conditions: conds.iter().map(|c| relative(c, frame, &poly, s)).fold(0.0, f64::max),
     };
-    if checks.equilibrium > CHECK_WARN
-        || checks.closed_form.unwrap_or(0.0) > CHECK_WARN
-        || checks.conditions > CHECK_WARN
-    {
-        warnings.push(format!(
-            "the self-checks are looser than 1e-9 (equilibrium {}, closed form {}, conditions {}): treat the result with care",
-            fmt_num(checks.equilibrium),
-            checks.closed_form.map_or_else(|| "n/a".to_string(), fmt_num),
-            fmt_num(checks.conditions)
-        ));
-    }
+    warnings.extend(checks.warning());
     let load_line: Vec<Point> = frame.load_line.iter().map(|a| a.to_point()).collect();
     let pole = Point::new(params.ox, params.oy);
     let node_kinds: Vec<NodeKind> =

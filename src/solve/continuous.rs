@@ -55,9 +55,6 @@ use crate::model::{Structure, fmt_num};
 /// Most panels in a drawn profile (beyond the nodes the drawing fixes).
 pub(crate) const MAX_PANELS: usize = 20_000;
 
-/// Self-check figures above this earn a warning.
-const CHECK_WARN: f64 = 1e-9;
-
 /// A point of the drawn polygon that the problem fixes.
 #[derive(Clone, Copy, Debug, PartialEq)]
 pub(crate) struct Mark {
@@ -824,17 +821,7 @@ impl<'a> Setup<'a> {
             closed_form: Some(self.closed_form(l, &poly, &xs, thrust)),
             conditions,
         };
-        if checks.equilibrium > CHECK_WARN
-            || checks.closed_form.unwrap_or(0.0) > CHECK_WARN
-            || checks.conditions > CHECK_WARN
-        {
-            warnings.push(format!(
-                "the self-checks are looser than 1e-9 (equilibrium {}, closed form {}, conditions {}): treat the result with care",
-                fmt_num(checks.equilibrium),
-                checks.closed_form.map_or_else(|| "n/a".to_string(), fmt_num),
-                fmt_num(checks.conditions)
-            ));
-        }
+        warnings.extend(checks.warning());
         let pole = Point::new(pole.x, pole.y);
         let n_line = load_line.len() - 1;
         Ok(Solution {

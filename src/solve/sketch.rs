@@ -86,7 +86,7 @@ pub fn follow_sketch(
     }
 
     ask::check_options(&namer, options)?;
-    let user: Vec<Cond> = conditions.iter().map(|c| cond(*c)).collect();
+    let user: Vec<Cond> = conditions.iter().map(|c| Cond::from(*c)).collect();
     for c in &user {
         ask::check_value(structure, &namer, c)?;
     }
@@ -375,18 +375,6 @@ fn independent(basis: &mut Vec<[f64; 3]>, row: [f64; 3]) -> bool {
     }
     basis.push([v[0] / n, v[1] / n, v[2] / n]);
     true
-}
-
-fn cond(c: Condition) -> Cond {
-    match c {
-        Condition::Through(p) => Cond::Through(p),
-        Condition::Thrust(h) => Cond::Thrust(h),
-        Condition::Sag(f) => Cond::Sag(f),
-        Condition::MaxForce(t) => Cond::MaxForce(t),
-        Condition::LevelAt(x) => Cond::LevelAt(x),
-        Condition::Length(l) => Cond::Length(l),
-        Condition::UnstressedLength(l) => Cond::Unstressed(l),
-    }
 }
 
 fn condition(c: Cond) -> Condition {

@@ -185,6 +185,27 @@ pub struct Checks {
     pub conditions: f64,
 }
 
+impl Checks {
+    /// Self-check figures above this earn a warning.
+    pub const WARN: f64 = 1e-9;
+
+    /// The warning when any figure is looser than [`Checks::WARN`].
+    #[must_use]
+    pub fn warning(&self) -> Option<String> {
+        let loose = self.equilibrium > Self::WARN
+            || self.closed_form.unwrap_or(0.0) > Self::WARN
+            || self.conditions > Self::WARN;
+        loose.then(|| {
+            format!(
+                "the self-checks are looser than 1e-9 (equilibrium {}, closed form {}, conditions {}): treat the result with care",
+                crate::model::fmt_num(self.equilibrium),
+                self.closed_form.map_or_else(|| "n/a".to_string(), crate::model::fmt_num),
+                crate::model::fmt_num(self.conditions)
+            )
+        })
+    }
+}
+
 /// A funicular polygon and its force diagram.
 #[derive(Clone, Debug, PartialEq)]
 pub struct Solution {

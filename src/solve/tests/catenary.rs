@@ -117,11 +117,11 @@ fn catenary_arch() {
 
 #[test]
 fn worked_case_from_the_line_length() {
-    // Worked case "Cables: catenaries", example 1, as listed in
-    // /work/shared/references.md: line length 140 m, level span 120 m,
-    // 3 kg/m, g = 9.81 m/s². Published there: a = 61.45 m, sag 31.70 m; to
-    // more digits, computed from its data: a = 61.4457 m, sag 31.6971 m,
-    // T_max = 2741.2 N, H = 1808.3 N.
+    // The catenary's length S = 2a·sinh(L/2a) and sag a(cosh(L/2a) − 1)
+    // (Beer & Johnston, Vector Mechanics for Engineers: Statics, §7.10;
+    // section from memory): a line 140 m long over a level 120 m span,
+    // 3 kg/m with g = 9.81 m/s², has a = 61.4457 m, sag 31.6971 m,
+    // T_max = w(a + sag) = 2741.2 N and H = wa = 1808.3 N.
     let units = Units { length: LengthUnit::Metre, force: ForceUnit::Newton };
     let (l, s, q) = (120.0, 140.0, 3.0 * 9.81);
     let sol = solved_with(&bare(units, l, 0.0), Form::Cable, &[Condition::Length(s)], &opts(Some(q), None));
