@@ -283,3 +283,49 @@ fn block_loads_are_read_with_their_attributes() {
     assert!(loads.iter().any(|l| l["force"]["x"].as_f64() != Some(0.0)), "the rotated block's load is inclined");
     assert!(r["checks"]["equilibrium"].as_f64().expect("check") <= 1e-9);
 }
+
+/// One invented cable drawn by ezdxf in R12, R2000, R2013 and R2018, each in
+/// metres and millimetres (anchors at different heights, unequal loads at
+/// unequal spacing): every condition type solves on every one of the eight,
+/// agrees with the closed form y = chord(x) − M(x)/H to 1e-9 of the span
+/// (Beer & Johnston, *Vector Mechanics for Engineers: Statics*, §7.9), and
+/// the eight give the same answer (millimetres = metres × 1000).
+#[test]
+fn every_version_and_unit_gives_the_same_funicular() {
+    let expect = expectations();
+    let mut seen = std::collections::BTreeSet::new();
+    let mut kinds = std::collections::BTreeSet::new();
+    let mut reference: Vec<Vec<(f64, f64, f64)>> = Vec::new();
+    for (name, e) in expect.iter().filter(|(n, _)| n.starts_with("hollinyard-")) {
+        let scale: f64 = match e["units"]["intended_length"].as_str() {
+            Some("m") => 1.0,
+            Some("mm") => 1e-3,
+            other => panic!("{name}: unit {other:?}"),
+        };
+        seen.insert((e["dxf_version"].as_str().unwrap_or_default().to_string(), scale.to_bits()));
+        let cases = e["cases"].as_array().expect("cases");
+        let mut results = Vec::new();
+        for case in cases {
+            let args = case_args(&case["args"]);
+            kinds.extend(args.iter().filter(|a| a.starts_with("--")).cloned());
+            let r = solve_report(name, &read_args(e), &args);
+            let err = closed_form_error(&r);
+            assert!(err <= 1e-9, "{name} {}: closed form off by {err:e} of the span", case["args"]);
+            let h = r["thrust"].as_f64().expect("thrust");
+            results.push(nodes(&r).into_iter().map(|(x, y)| (x * scale, y * scale, h)).collect::<Vec<_>>());
+        }
+        if reference.is_empty() {
+            reference = results;
+            continue;
+        }
+        for (got, want) in results.iter().flatten().zip(reference.iter().flatten()) {
+            assert!((got.0 - want.0).abs() <= 1e-9 * 36.0, "{name}: {got:?} vs {want:?}");
+            assert!((got.1 - want.1).abs() <= 1e-9 * 36.0, "{name}: {got:?} vs {want:?}");
+            assert!((got.2 - want.2).abs() <= 1e-9 * want.2, "{name}: H {} vs {}", got.2, want.2);
+        }
+    }
+    assert_eq!(seen.len(), 8, "four versions × two units expected: {seen:?}");
+    for k in ["--sag", "--thrust", "--through", "--max-force", "--level-at", "--arch", "--rise"] {
+        assert!(kinds.contains(k), "no case uses {k}");
+    }
+}
