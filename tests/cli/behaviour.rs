@@ -199,3 +199,43 @@ fn unit_and_layout_flags() {
         assert!((l["magnitude"].as_f64().unwrap_or(0.0) - 15.0).abs() < 1e-9, "{l}");
     }
 }
+
+/// The README's first command (the demo) runs as written, on a copy of the
+/// demo drawing: it writes the drawing and the report it promises, and the
+/// report meets the sag it was asked for, with node equilibrium and the
+/// closed form y = chord − M(x)/H (Beer & Johnston, *Vector Mechanics for
+/// Engineers: Statics*, §7.9) held to round-off.
+#[test]
+fn the_readmes_first_command_runs() {
+    let readme = std::fs::read_to_string(crate::util::root().join("README.md")).expect("README.md");
+    let line =
+        readme.lines().find_map(|l| l.strip_prefix("    cargo run --release -- ")).expect("the README's first command");
+    let dir = temp();
+    std::fs::create_dir(dir.path().join("demo-drawings")).expect("folder");
+    let mut args: Vec<String> = Vec::new();
+    for word in line.split_whitespace() {
+        if let Some(name) = word.strip_prefix("demo-drawings/") {
+            let copy = dir.path().join("demo-drawings").join(name);
+            let original = crate::util::root().join("demo-drawings").join(name);
+            if original.exists() {
+                std::fs::copy(&original, &copy).expect("copy the demo drawing");
+            }
+            args.push(copy.display().to_string());
+        } else {
+            args.push(word.to_string());
+        }
+    }
+    assert_eq!(args.first().map(String::as_str), Some("solve"), "{line}");
+    let run = hangline(&args).ok();
+    assert!(run.stdout.contains("qualified engineer"), "{}", run.stdout);
+    let report_path = args.iter().skip_while(|a| *a != "--report").nth(1).expect("the demo writes a report");
+    let report = json(std::path::Path::new(report_path));
+    let sag = args.iter().skip_while(|a| *a != "--sag").nth(1).and_then(|s| s.parse::<f64>().ok()).expect("--sag");
+    assert!((report["sag"]["value"].as_f64().expect("sag") - sag).abs() <= 1e-12 * sag, "{}", report["sag"]);
+    for check in ["equilibrium", "closed_form", "conditions"] {
+        let v = report["checks"][check].as_f64().expect("check");
+        assert!(v <= 1e-12, "{check}: {v}");
+    }
+    let drawing = args[1].replace(".dxf", "-hangline.dxf");
+    assert!(std::path::Path::new(&drawing).exists(), "{drawing} not written");
+}
