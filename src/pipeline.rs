@@ -252,11 +252,24 @@ pub fn run(bytes: &[u8], job: &Job, out: &mut dyn Write) -> Result<Outcome, Erro
     Ok(outcome)
 }
 
+/// The warning for a drawing whose header scales dimension measurements
+/// (`$DIMLFAC` ≠ 1), when it does; its dimensions then carry their values
+/// as text, true lengths in any program.
+pub(crate) fn dimension_scale_note(file: &File) -> Option<String> {
+    let factor = file.header_f64("$DIMLFAC", 40)?;
+    ((factor - 1.0).abs() > 1e-12).then(|| {
+        format!(
+            "the drawing's $DIMLFAC is {factor}: the tool's dimensions carry their true lengths written out as text, \
+             since some programs would multiply a measured value by that factor"
+        )
+    })
+}
+
 /// Runs the whole job on `bytes` up to the plan of the output, which the
 /// caller applies (from memory, or by copying ranges of the input file).
 pub fn prepare(bytes: &[u8], job: &Job) -> Result<(Outcome, Plan), Error> {
     let file = File::scan(bytes, &scan_options(&job.read.layers, job.layers.all()))?;
-    let reading = read(&file, &job.read)?;
+    let mut reading = read(&file, &job.read)?;
     let units = reading.structure.units();
     let options = solve_options(job, units);
     if !reading.structure.has_loads() && options.self_weight.is_none() {
@@ -265,6 +278,10 @@ pub fn prepare(bytes: &[u8], job: &Job) -> Result<(Outcome, Plan), Error> {
     let carried = carry(&reading.structure, &reading.hangers);
     let mut layout_options = job.layout;
     layout_options.self_weight = options.self_weight;
+    if let Some(note) = dimension_scale_note(&file) {
+        layout_options.literal_dimension_text = true;
+        reading.warnings.push(note);
+    }
     if let Some(f) = job.force_scale {
         let unit = reading.structure.units().force;
         layout_options.force_scale = Some(f.value * f.unit.map_or(1.0, |u| u.factor_to(unit)));

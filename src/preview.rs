@@ -498,6 +498,7 @@ mod tests {
                 ext_extend: 0.4,
                 gap: 0.2,
                 decimals: 2,
+                literal_text: false,
             },
         }
     }

@@ -136,6 +136,7 @@ pub fn assess_layout(view: &AssessView<'_>, extents: Option<Rect>, options: &Lay
         ext_extend: 0.4 * th,
         gap: 0.2 * th,
         decimals: super::nice::length_decimals(units.length) as i64,
+        literal_text: options.literal_dimension_text,
     };
     let mut items = Vec::new();
 

@@ -48,15 +48,17 @@ pub fn linear(p1: Point, p2: Point, angle: f64, through: Point, prefix: &str, st
     let up = Vec2::new(-ts, tc);
     let text_at = a.midpoint(b) + up * (style.gap + style.text_height / 2.0);
     let value = format!("{:.*}", style.decimals.max(0) as usize, measurement);
+    let content = format!("{prefix} {value}");
+    let override_text = if style.literal_text { content.clone() } else { format!("{prefix} <>") };
     geometry.push(Shape::Text(Text {
         at: text_at,
         height: style.text_height,
         rotation: text_angle,
-        content: format!("{prefix} {value}"),
+        content,
         h: HAlign::Center,
         v: VAlign::Middle,
     }));
-    Dimension { p1, p2, line_at: b, angle, text_at, measurement, override_text: format!("{prefix} <>"), geometry }
+    Dimension { p1, p2, line_at: b, angle, text_at, measurement, override_text, geometry }
 }
 
 #[cfg(test)]
@@ -64,7 +66,15 @@ mod tests {
     use super::*;
 
     fn style() -> DimStyle {
-        DimStyle { text_height: 0.5, arrow: 0.4, ext_offset: 0.1, ext_extend: 0.2, gap: 0.1, decimals: 3 }
+        DimStyle {
+            text_height: 0.5,
+            arrow: 0.4,
+            ext_offset: 0.1,
+            ext_extend: 0.2,
+            gap: 0.1,
+            decimals: 3,
+            literal_text: false,
+        }
     }
 
     #[test]
@@ -73,6 +83,9 @@ mod tests {
         assert!((d.measurement - 6.0).abs() < 1e-12);
         assert_eq!(d.line_at, Point::new(7.0, 4.0));
         assert_eq!(d.override_text, "sag <>");
+        let literal = DimStyle { literal_text: true, ..style() };
+        let d = linear(Point::new(5.0, 10.0), Point::new(5.0, 4.0), 90.0, Point::new(7.0, 0.0), "sag", &literal);
+        assert_eq!(d.override_text, "sag 6.000");
         let text = d.geometry.iter().find_map(|s| if let Shape::Text(t) = s { Some(t) } else { None }).unwrap();
         assert_eq!(text.content, "sag 6.000");
         assert_eq!(text.rotation, 90.0);

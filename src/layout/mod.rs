@@ -32,6 +32,9 @@ pub struct LayoutOptions {
     pub text_height: Option<f64>,
     /// Self-weight per unit length of the profile, drawn in the load diagram.
     pub self_weight: Option<f64>,
+    /// Dimensions carry their measured values as text instead of `<>`
+    /// (see [`DimStyle::literal_text`]).
+    pub literal_dimension_text: bool,
 }
 
 /// What the layout decided, for the report and the summary.
@@ -135,6 +138,7 @@ pub fn layout_with_notes(
         ext_extend: 0.4 * th,
         gap: 0.2 * th,
         decimals: nice::length_decimals(units.length) as i64,
+        literal_text: options.literal_dimension_text,
     };
     let mut items = form::form_items(structure, drawn, solution, th, &dim_style, options.self_weight);
     let mut taken = extents;

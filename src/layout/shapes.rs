@@ -254,6 +254,10 @@ pub struct DimStyle {
     pub gap: f64,
     /// Decimal places (DIMDEC).
     pub decimals: i64,
+    /// Each dimension's text is its measured value written out, not `<>`:
+    /// for drawings whose header scales measurements (`$DIMLFAC` ≠ 1),
+    /// which some programs apply to `<>` whatever the style says.
+    pub literal_text: bool,
 }
 
 /// Everything the tool adds to a drawing.

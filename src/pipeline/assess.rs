@@ -157,12 +157,16 @@ pub struct AssessOutcome {
 /// Runs the assessment on `bytes` up to the plan of the output.
 pub fn prepare_assess(bytes: &[u8], job: &AssessJob) -> Result<(AssessOutcome, Plan), Error> {
     let file = File::scan(bytes, &scan_options(&job.read.layers, job.layers.all()))?;
-    let reading = read_arch(&file, &job.read)?;
+    let mut reading = read_arch(&file, &job.read)?;
     let assessment = assess(&reading, job)?;
     let units = reading.units;
     let mut layout_options = job.layout;
     if let Some(f) = job.force_scale {
         layout_options.force_scale = Some(f.value * f.unit.map_or(1.0, |u| u.factor_to(units.force)));
+    }
+    if let Some(note) = super::dimension_scale_note(&file) {
+        layout_options.literal_dimension_text = true;
+        reading.warnings.push(note);
     }
     let view = view(&assessment, units);
     let (additions, placement) = assess_layout(&view, reading.extents, &layout_options);

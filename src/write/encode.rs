@@ -232,6 +232,9 @@ impl Pen<'_> {
             .real(44, s.ext_extend) // DIMEXE
             .real(140, s.text_height) // DIMTXT
             .real(141, 0.0) // DIMCEN
+            // DIMLFAC 1: the user's header may scale measurements ($DIMLFAC),
+            // but the tool's dimensions give true lengths.
+            .real(144, 1.0) // DIMLFAC
             .real(147, s.gap) // DIMGAP
             .int(73, 0) // DIMTIH
             .int(74, 0) // DIMTOH

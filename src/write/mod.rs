@@ -501,6 +501,7 @@ mod tests {
                 ext_extend: 0.1,
                 gap: 0.05,
                 decimals: 2,
+                literal_text: false,
             },
         }
     }

@@ -106,3 +106,43 @@ fn outputs_pass_the_outside_reader() {
     }
     assert!(checked >= 12, "only {checked} fixtures checked");
 }
+
+/// A drawing whose header scales dimension measurements (`$DIMLFAC` = 100,
+/// as ezdxf's default setup writes) gets dimensions whose text is the true
+/// length written out, the same as their geometry blocks show; a drawing
+/// with `$DIMLFAC` = 1 keeps `<>`, the measurement that follows an edit.
+#[test]
+fn dimensions_read_true_lengths_whatever_the_headers_scale() {
+    let Some(py) = python() else {
+        eprintln!("skipped: no Python with ezdxf (run the README's test command)");
+        return;
+    };
+    for (input, read, args, literal) in [
+        (crate::util::root().join("demo-drawings/ambermoor-footbridge.dxf"), vec![], vec!["--sag", "3.5"], true),
+        (fixture("footbridge-m-r2018.dxf"), vec![], vec!["--sag", "4.5"], false),
+    ] {
+        let dir = temp();
+        let (out, rep) = (dir.path().join("o.dxf"), dir.path().join("o.json"));
+        let args: Vec<String> = args.into_iter().map(String::from).collect();
+        solve_into(&input, &out, &rep, &read, &args);
+        let report = json(&rep);
+        let warned =
+            report["warnings"].as_array().expect("warnings").iter().any(|w| w.to_string().contains("$DIMLFAC"));
+        assert_eq!(warned, literal, "{}", input.display());
+        let c = check_output(&py, &input, &out);
+        let dims = c["tool_layers"]["HANGLINE-DIMENSIONS"]["dimensions"].as_array().expect("dimensions");
+        assert!(dims.len() >= 2);
+        for d in dims {
+            let text = d["text"].as_str().expect("text");
+            let shown = d["block_texts"][0].as_str().expect("block text");
+            if literal {
+                assert_eq!(text, shown, "{d}");
+            } else {
+                assert!(text.ends_with(" <>") && shown.starts_with(text.trim_end_matches("<>")), "{d}");
+            }
+        }
+        let span = report["span"].as_f64().expect("span");
+        let want = format!("span {span:.3}");
+        assert!(dims.iter().any(|d| d["block_texts"][0] == want.as_str()), "{want}: {dims:?}");
+    }
+}

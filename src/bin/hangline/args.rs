@@ -746,7 +746,7 @@ impl SolveArgs {
             read,
             form: if self.arch { Form::Arch } else { Form::Cable },
             given,
-            layout: LayoutOptions { force_scale: None, diagram_at, text_height: self.text_height, self_weight: None },
+            layout: LayoutOptions { diagram_at, text_height: self.text_height, ..LayoutOptions::default() },
             force_scale,
             layers,
             self_weight,
@@ -859,7 +859,7 @@ impl AssessArgs {
             voussoirs,
             trial,
             live,
-            layout: LayoutOptions { force_scale: None, diagram_at, text_height: self.text_height, self_weight: None },
+            layout: LayoutOptions { diagram_at, text_height: self.text_height, ..LayoutOptions::default() },
             force_scale,
             layers: output,
         })
