@@ -23,8 +23,8 @@ const SOLVE_EXAMPLES: &str = "\
 Examples:
   Cable through both supports with a 6 m sag:
     hangline solve bridge.dxf --sag 6 --report bridge.json
-  Cable whose low point is level at x = 24 and passes through (24, 3.5):
-    hangline solve bridge.dxf --level-at 24 --through 24,3.5
+  One anchor and one tower axis: the low point level at x = 24, through (24, 3.5):
+    hangline solve anchor-tower.dxf --level-at 24 --through 24,3.5
   Arch with a 9 m rise, written to another file:
     hangline solve arch.dxf --arch --rise 9 -o arch-funicular.dxf
   Towers whose height follows: give three conditions of your own:
