@@ -146,3 +146,45 @@ fn dimensions_read_true_lengths_whatever_the_headers_scale() {
         assert!(dims.iter().any(|d| d["block_texts"][0] == want.as_str()), "{want}: {dims:?}");
     }
 }
+
+/// The force diagram sits beside the drawing, clear of everything: its box
+/// (ezdxf's, tests/outside/boxes.py) meets neither the input's model space
+/// nor the tool's other additions (the profile, hangers, forces,
+/// dimensions, load diagram and notes), on every fixture.
+#[test]
+fn the_force_diagram_overlaps_nothing() {
+    let Some(py) = python() else {
+        eprintln!("skipped: no Python with ezdxf (run the README's test command)");
+        return;
+    };
+    let apart = |a: &Value, b: &Value| {
+        let v = |x: &Value, i: usize| x[i].as_f64().expect("box");
+        v(a, 2) < v(b, 0) || v(b, 2) < v(a, 0) || v(a, 3) < v(b, 1) || v(b, 3) < v(a, 1)
+    };
+    let mut checked = 0;
+    for (name, e) in expectations() {
+        let Some(case) = e["cases"].as_array().and_then(|c| c.first()) else { continue };
+        let dir = temp();
+        let input = fixture(&format!("{name}.dxf"));
+        let (out, rep) = (dir.path().join("o.dxf"), dir.path().join("o.json"));
+        solve_into(&input, &out, &rep, &read_args(&e), &case_args(&case["args"]));
+        let run = std::process::Command::new(&py)
+            .arg(crate::util::root().join("tests/outside/boxes.py"))
+            .args([&input, &out])
+            .output()
+            .expect("python runs");
+        let boxes: Value = serde_json::from_slice(&run.stdout)
+            .unwrap_or_else(|_| panic!("{name}: {}", String::from_utf8_lossy(&run.stderr)));
+        let diagram = &boxes["layers"]["HANGLINE-FORCE-DIAGRAM"];
+        assert!(diagram.is_array(), "{name}: no force diagram: {boxes}");
+        assert!(apart(diagram, &boxes["input"]), "{name}: the diagram {diagram} meets the drawing {}", boxes["input"]);
+        for layer in ["PROFILE", "HANGERS", "FORCES", "DIMENSIONS", "LOAD-DIAGRAM", "NOTES"] {
+            let other = &boxes["layers"][format!("HANGLINE-{layer}")];
+            if other.is_array() {
+                assert!(apart(diagram, other), "{name}: the diagram {diagram} meets {layer} {other}");
+            }
+        }
+        checked += 1;
+    }
+    assert!(checked >= 20, "only {checked} fixtures checked");
+}
