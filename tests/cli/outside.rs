@@ -188,3 +188,44 @@ fn the_force_diagram_overlaps_nothing() {
     }
     assert!(checked >= 20, "only {checked} fixtures checked");
 }
+
+/// Text the tool adds is written in the version's encoding (DXF reference,
+/// group codes and strings: `\U+XXXX` escapes before R2007, UTF-8 from
+/// R2007): a layer name with `Ä` is escaped in an R2000 output, which stays
+/// ASCII, and is plain UTF-8 in an R2018 one. ezdxf finds the notes on that
+/// layer in both; its ordinary reader leaves escapes in names as written,
+/// so the name is compared after ezdxf's own `decode_dxf_unicode`.
+#[test]
+fn added_text_is_in_the_versions_encoding() {
+    let Some(py) = python() else {
+        eprintln!("skipped: no Python with ezdxf (run the README's test command)");
+        return;
+    };
+    for (name, escaped) in [("hollinyard-m-r2000", true), ("hollinyard-m-r2018", false)] {
+        let dir = temp();
+        let input = fixture(&format!("{name}.dxf"));
+        let (out, rep) = (dir.path().join("o.dxf"), dir.path().join("o.json"));
+        let args: Vec<String> = ["--sag", "3.2", "--layer", "notes=NOTIZEN-Ä"].into_iter().map(String::from).collect();
+        solve_into(&input, &out, &rep, &[], &args);
+        let bytes = std::fs::read(&out).expect("output");
+        let text = String::from_utf8_lossy(&bytes);
+        if escaped {
+            assert!(bytes.is_ascii(), "{name}: an R2000 output must be ASCII");
+            assert!(text.contains("NOTIZEN-\\U+00C4"), "{name}");
+        } else {
+            assert!(text.contains("NOTIZEN-Ä") && !text.contains("\\U+00C4"), "{name}");
+        }
+        let script = "import sys, json, ezdxf\n\
+            d = ezdxf.readfile(sys.argv[1])\n\
+            print(json.dumps(sorted({ezdxf.decode_dxf_unicode(e.dxf.layer) for e in d.modelspace().query('TEXT')})))";
+        let run = std::process::Command::new(&py).args(["-c", script]).arg(&out).output().expect("python runs");
+        let layers: Value = serde_json::from_slice(&run.stdout)
+            .unwrap_or_else(|_| panic!("{name}: {}", String::from_utf8_lossy(&run.stderr)));
+        assert!(
+            layers.as_array().is_some_and(|l| l.iter().any(|n| n == "NOTIZEN-Ä")),
+            "{name}: no text on NOTIZEN-Ä: {layers}"
+        );
+        let c = check_output(&py, &input, &out);
+        assert_eq!(c["audit_errors"], 0, "{name}: {}", c["audit"]);
+    }
+}
