@@ -31,8 +31,9 @@ pub fn linear(p1: Point, p2: Point, angle: f64, through: Point, prefix: &str, st
     }
     geometry.push(Shape::Line(Line::new(a, b)));
     let ab = b - a;
-    if ab.hypot() > 0.0 {
-        let v = ab / ab.hypot();
+    let length = ab.hypot();
+    let v = if length > 0.0 { ab / length } else { u };
+    if length > 0.0 {
         for (tip, dir) in [(a, v), (b, -v)] {
             let w = Vec2::new(-dir.y, dir.x) * (style.arrow / 6.0);
             let base = tip + dir * style.arrow;
@@ -46,9 +47,21 @@ pub fn linear(p1: Point, p2: Point, angle: f64, through: Point, prefix: &str, st
     }
     let (ts, tc) = text_angle.to_radians().sin_cos();
     let up = Vec2::new(-ts, tc);
-    let text_at = a.midpoint(b) + up * (style.gap + style.text_height / 2.0);
     let value = format!("{:.*}", style.decimals.max(0) as usize, measurement);
     let content = format!("{prefix} {value}");
+    // Text longer than the dimension goes out beyond the first extension
+    // line, above the dimension line drawn on under it (common drafting
+    // practice, no source); callers put the clear side first.
+    let text_length = content.chars().count() as f64 * CHARACTER_WIDTH * style.text_height;
+    let text_moved = text_length > length;
+    let along = if text_moved {
+        let reach = style.ext_extend + style.gap + text_length;
+        geometry.push(Shape::Line(Line::new(a, a - v * reach)));
+        a - v * (reach - text_length / 2.0)
+    } else {
+        a.midpoint(b)
+    };
+    let text_at = along + up * (style.gap + style.text_height / 2.0);
     let override_text = if style.literal_text { content.clone() } else { format!("{prefix} <>") };
     geometry.push(Shape::Text(Text {
         at: text_at,
@@ -58,8 +71,13 @@ pub fn linear(p1: Point, p2: Point, angle: f64, through: Point, prefix: &str, st
         h: HAlign::Center,
         v: VAlign::Middle,
     }));
-    Dimension { p1, p2, line_at: b, angle, text_at, measurement, override_text, geometry }
+    Dimension { p1, p2, line_at: b, angle, text_at, measurement, override_text, text_moved, geometry }
 }
+
+/// A character's advance as a fraction of the text height, for the usual
+/// CAD fonts (common practice, no source; a little generous, so that a text
+/// said to fit does).
+const CHARACTER_WIDTH: f64 = 0.7;
 
 #[cfg(test)]
 mod tests {
@@ -103,5 +121,26 @@ mod tests {
         let Shape::Line(ext) = &d.geometry[0] else { panic!("extension line first") };
         assert_eq!(ext.p0, Point::new(0.0, -0.1));
         assert!((ext.p1.y - -4.2).abs() < 1e-12);
+        // 48 long, "span 48.000" about 3.9: the text sits over the middle.
+        assert!(!d.text_moved);
+        assert!((d.text_at.x - 24.0).abs() < 1e-12 && d.text_at.y > -4.0);
+    }
+
+    #[test]
+    fn a_text_longer_than_its_dimension_goes_beyond_the_first_point() {
+        // 1.5 high; "sag 1.500" is 9 characters, about 3.2 long at 0.5 high.
+        let d = linear(Point::new(5.0, 10.0), Point::new(5.0, 8.5), 90.0, Point::new(7.0, 0.0), "sag", &style());
+        assert!(d.text_moved);
+        let Some(Shape::Text(t)) = d.geometry.last() else { panic!("text last") };
+        let half = 9.0 * CHARACTER_WIDTH * 0.5 / 2.0;
+        // Above the first point, clear of the dimension by the extension and gap.
+        assert!(t.at.y - half >= 10.0 + 0.2 + 0.1 - 1e-12, "{:?}", t.at);
+        assert_eq!(t.at, d.text_at);
+        // The dimension line runs on under the text.
+        let under = d
+            .geometry
+            .iter()
+            .any(|g| matches!(g, Shape::Line(l) if l.p0 == Point::new(7.0, 10.0) && l.p1.y >= t.at.y + half));
+        assert!(under, "{:?}", d.geometry);
     }
 }

@@ -167,20 +167,17 @@ pub(super) fn form_items(
         Form::Cable => "sag",
         Form::Arch => "rise",
     };
-    let sag = linear(
-        Point::new(s.sag.x, s.sag.chord_y),
-        Point::new(s.sag.x, s.sag.profile_y),
-        90.0,
-        Point::new(s.sag.x + 2.5 * th, 0.0),
-        word,
-        dim,
-    );
+    // Vertical dimensions start at their upper point: a text too long for
+    // the dimension goes above it, into the open sky of an elevation.
+    let (top, bottom) = higher_first(Point::new(s.sag.x, s.sag.chord_y), Point::new(s.sag.x, s.sag.profile_y));
+    let sag = linear(top, bottom, 90.0, Point::new(s.sag.x + 2.5 * th, 0.0), word, dim);
     items.push(item(Role::Dimensions, Shape::Dimension(Box::new(sag))));
     for t in &s.towers {
         let support = if t.side == 0 { structure.left() } else { structure.right() };
         if let Support::Axis { x, foot, .. } = support {
             let out = if t.side == 0 { -3.0 * th } else { 3.0 * th };
-            let d = linear(Point::new(*x, *foot), t.at, 90.0, Point::new(x + out, 0.0), "tower", dim);
+            let (top, bottom) = higher_first(Point::new(*x, *foot), t.at);
+            let d = linear(top, bottom, 90.0, Point::new(x + out, 0.0), "tower", dim);
             items.push(item(Role::Dimensions, Shape::Dimension(Box::new(d))));
         }
     }
@@ -189,9 +186,14 @@ pub(super) fn form_items(
         items.extend(super::loads::load_items(drawn, s, lowest - 9.0 * th, th, self_weight));
     }
     if let Some(c) = crate::solve::clearance(structure, s) {
-        let (q, node) = (Point::new(c.x, c.deck_y), Point::new(c.x, c.profile_y));
-        let d = linear(q, node, 90.0, Point::new(c.x - 2.5 * th, 0.0), "clearance", dim);
+        let (top, bottom) = higher_first(Point::new(c.x, c.deck_y), Point::new(c.x, c.profile_y));
+        let d = linear(top, bottom, 90.0, Point::new(c.x - 2.5 * th, 0.0), "clearance", dim);
         items.push(item(Role::Dimensions, Shape::Dimension(Box::new(d))));
     }
     items
+}
+
+/// The two points, the higher first.
+fn higher_first(a: Point, b: Point) -> (Point, Point) {
+    if a.y >= b.y { (a, b) } else { (b, a) }
 }

@@ -195,6 +195,10 @@ pub struct Dimension {
     pub measurement: f64,
     /// Text override (DXF 1): `<>` stands for the measurement.
     pub override_text: String,
+    /// True when the text was moved out beyond the first extension line
+    /// because it is longer than the dimension (DXF 70 flag 128: text at a
+    /// user-defined place, kept when a CAD program redraws it).
+    pub text_moved: bool,
     /// What the dimension shows, in world coordinates: the content of its
     /// anonymous `*D` block.
     pub geometry: Vec<Shape>,

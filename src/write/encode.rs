@@ -111,7 +111,8 @@ impl Pen<'_> {
                 self.subclass("AcDbDimension");
                 self.enc.text(2, block.unwrap_or_default()).text(3, DIM_STYLE_NAME);
                 self.enc.point(10, d.line_at).point(11, d.text_at);
-                self.enc.int(70, 32);
+                // 32: the block is this dimension's own; 128: text placed by us.
+                self.enc.int(70, if d.text_moved { 32 | 128 } else { 32 });
                 if self.modern() {
                     self.enc.int(71, 5);
                 }
