@@ -586,10 +586,11 @@ fn inspect(a: &InspectArgs) -> Result<()> {
         println!("  {side}  {what}   entity {}", s.handle.as_deref().unwrap_or("-"));
     }
     println!(
-        "loads (layer {}): {} point loads; {} in all, distributed loads included",
+        "loads (layer {}): {} point loads; {} in all{}",
         options.layers.loads,
         ins.loads.len(),
-        fmt_force(ins.total_load, u.force)
+        fmt_force(ins.total_load, u.force),
+        if ins.distributed.is_empty() { "" } else { ", distributed loads included" }
     );
     for (k, l) in ins.loads.iter().enumerate() {
         let dir = if l.force.x == 0.0 {
