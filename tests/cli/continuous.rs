@@ -4,7 +4,7 @@
 
 use serde_json::Value;
 
-use crate::util::{check_output, close, hangline, json, python, root, temp};
+use crate::util::{check_output, close, hangline, json, python_or_skip, root, temp};
 
 fn drawing(name: &str) -> String {
     root().join("fixtures/continuous").join(name).display().to_string()
@@ -208,10 +208,7 @@ fn bad_distributed_loads_and_lengths() {
 /// loads, audit clean, nothing of the input lost).
 #[test]
 fn continuous_outputs_pass_the_outside_reader() {
-    let Some(py) = python() else {
-        eprintln!("skipped: no Python with ezdxf (run the README's test command)");
-        return;
-    };
+    let Some(py) = python_or_skip() else { return };
     for (name, args) in [
         ("uniform-m-r12.dxf", vec!["--sag", "10", "--units", "m"]),
         ("uniform-m-r2018-bin.dxf", vec!["--sag", "10"]),

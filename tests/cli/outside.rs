@@ -6,7 +6,7 @@ use std::path::Path;
 
 use serde_json::Value;
 
-use crate::util::{case_args, check_output, expectations, fixture, hangline, json, python, read_args, temp};
+use crate::util::{case_args, check_output, expectations, fixture, hangline, json, python_or_skip, read_args, temp};
 
 fn solve_into(input: &Path, out: &Path, report: &Path, read: &[String], args: &[String]) {
     let mut all: Vec<String> = vec!["solve".into(), input.display().to_string(), "-q".into()];
@@ -72,10 +72,7 @@ fn assert_clean(name: &str, c: &Value, report: &Value) {
 /// instead of adding to them.
 #[test]
 fn outputs_pass_the_outside_reader() {
-    let Some(py) = python() else {
-        eprintln!("skipped: no Python with ezdxf (run the README's test command)");
-        return;
-    };
+    let Some(py) = python_or_skip() else { return };
     let mut checked = 0;
     for (name, e) in expectations() {
         let Some(case) = e["cases"].as_array().and_then(|c| c.first()) else { continue };
@@ -113,10 +110,7 @@ fn outputs_pass_the_outside_reader() {
 /// with `$DIMLFAC` = 1 keeps `<>`, the measurement that follows an edit.
 #[test]
 fn dimensions_read_true_lengths_whatever_the_headers_scale() {
-    let Some(py) = python() else {
-        eprintln!("skipped: no Python with ezdxf (run the README's test command)");
-        return;
-    };
+    let Some(py) = python_or_skip() else { return };
     for (input, read, args, literal) in [
         (crate::util::root().join("demo-drawings/ambermoor-footbridge.dxf"), vec![], vec!["--sag", "3.5"], true),
         (fixture("footbridge-m-r2018.dxf"), vec![], vec!["--sag", "4.5"], false),
@@ -153,10 +147,7 @@ fn dimensions_read_true_lengths_whatever_the_headers_scale() {
 /// dimensions, load diagram and notes), on every fixture.
 #[test]
 fn the_force_diagram_overlaps_nothing() {
-    let Some(py) = python() else {
-        eprintln!("skipped: no Python with ezdxf (run the README's test command)");
-        return;
-    };
+    let Some(py) = python_or_skip() else { return };
     let apart = |a: &Value, b: &Value| {
         let v = |x: &Value, i: usize| x[i].as_f64().expect("box");
         v(a, 2) < v(b, 0) || v(b, 2) < v(a, 0) || v(a, 3) < v(b, 1) || v(b, 3) < v(a, 1)
@@ -197,10 +188,7 @@ fn the_force_diagram_overlaps_nothing() {
 /// so the name is compared after ezdxf's own `decode_dxf_unicode`.
 #[test]
 fn added_text_is_in_the_versions_encoding() {
-    let Some(py) = python() else {
-        eprintln!("skipped: no Python with ezdxf (run the README's test command)");
-        return;
-    };
+    let Some(py) = python_or_skip() else { return };
     for (name, escaped) in [("hollinyard-m-r2000", true), ("hollinyard-m-r2018", false)] {
         let dir = temp();
         let input = fixture(&format!("{name}.dxf"));

@@ -25,7 +25,7 @@ use std::time::Instant;
 
 use serde_json::Value;
 
-use crate::util::{check_output, hangline, json, python, root, temp};
+use crate::util::{check_output, hangline, json, python_or_skip, root, temp};
 
 /// One drawing of the corpus, from its manifest.
 struct Drawing {
@@ -390,10 +390,7 @@ fn check_all(py: &Path, dir: &Path, corpus: &[Drawing], large: bool) -> Vec<Tall
 /// Every corpus drawing, solved, checked, solved again and checked again.
 #[test]
 fn nothing_is_lost_in_any_version() {
-    let Some(py) = python() else {
-        eprintln!("skipped: no Python with ezdxf (run the README's test command)");
-        return;
-    };
+    let Some(py) = python_or_skip() else { return };
     let started = Instant::now();
     let dir = temp();
     let corpus = make_corpus(&py, dir.path(), false);
@@ -443,10 +440,7 @@ fn nothing_is_lost_in_large_drawings() {
         eprintln!("skipped: set HANGLINE_ROUNDTRIP_LARGE=1 to check the large drawings (several minutes)");
         return;
     }
-    let Some(py) = python() else {
-        eprintln!("skipped: no Python with ezdxf (run the README's test command)");
-        return;
-    };
+    let Some(py) = python_or_skip() else { return };
     let started = Instant::now();
     let dir = temp();
     let corpus = make_corpus(&py, dir.path(), true);

@@ -126,6 +126,16 @@ pub fn python() -> Option<PathBuf> {
     found.clone()
 }
 
+/// The Python that has ezdxf, or `None` after saying on stderr that the
+/// check is skipped (only where [`python`] allows skipping at all).
+pub fn python_or_skip() -> Option<PathBuf> {
+    let found = python();
+    if found.is_none() {
+        eprintln!("skipped: no Python with ezdxf (run the README's test command)");
+    }
+    found
+}
+
 /// Runs the outside checker (ezdxf) on an output drawing and its input.
 pub fn check_output(py: &Path, input: &Path, output: &Path) -> Value {
     let out = Command::new(py)
