@@ -129,15 +129,8 @@ pub fn assess_layout(view: &AssessView<'_>, extents: Option<Rect>, options: &Lay
     let span = (right.intrados.midpoint(right.extrados) - left.intrados.midpoint(left.extrados)).hypot().max(1e-9);
     let th = options.text_height.unwrap_or_else(|| text_height_for(span));
     let units = view.units;
-    let dim_style = DimStyle {
-        text_height: 0.8 * th,
-        arrow: 0.8 * th,
-        ext_offset: 0.25 * th,
-        ext_extend: 0.4 * th,
-        gap: 0.2 * th,
-        decimals: super::nice::length_decimals(units.length) as i64,
-        literal_text: options.literal_dimension_text,
-    };
+    let decimals = super::nice::length_decimals(units.length) as i64;
+    let dim_style = DimStyle::for_text_height(th, decimals, options.literal_dimension_text);
     let mut items = Vec::new();
 
     // Joints.

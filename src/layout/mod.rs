@@ -131,15 +131,8 @@ pub fn layout_with_notes(
 ) -> (Additions, Placement) {
     let th = options.text_height.unwrap_or_else(|| text_height_for(structure.span()));
     let units = structure.units();
-    let dim_style = DimStyle {
-        text_height: 0.8 * th,
-        arrow: 0.8 * th,
-        ext_offset: 0.25 * th,
-        ext_extend: 0.4 * th,
-        gap: 0.2 * th,
-        decimals: nice::length_decimals(units.length) as i64,
-        literal_text: options.literal_dimension_text,
-    };
+    let decimals = nice::length_decimals(units.length) as i64;
+    let dim_style = DimStyle::for_text_height(th, decimals, options.literal_dimension_text);
     let mut items = form::form_items(structure, drawn, solution, th, &dim_style, options.self_weight);
     let mut taken = extents;
     for item in &items {

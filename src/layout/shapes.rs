@@ -264,6 +264,23 @@ pub struct DimStyle {
     pub literal_text: bool,
 }
 
+impl DimStyle {
+    /// The tool's dimension sizes for annotations of text height `th`: the
+    /// dimension text, arrows and offsets in fixed proportion to it.
+    #[must_use]
+    pub fn for_text_height(th: f64, decimals: i64, literal_text: bool) -> DimStyle {
+        DimStyle {
+            text_height: 0.8 * th,
+            arrow: 0.8 * th,
+            ext_offset: 0.25 * th,
+            ext_extend: 0.4 * th,
+            gap: 0.2 * th,
+            decimals,
+            literal_text,
+        }
+    }
+}
+
 /// Everything the tool adds to a drawing.
 #[derive(Clone, Debug, PartialEq)]
 pub struct Additions {

@@ -106,7 +106,6 @@ pub fn scan_options<'a>(layers: &ArchLayers, extra: impl Iterator<Item = &'a str
 /// Reads an arch from a scanned drawing.
 pub fn read_arch(file: &File<'_>, options: &ArchReadOptions) -> Result<ArchReading, ReadError> {
     let layers = &options.layers;
-    let mut warnings: Vec<String> = file.warnings.clone();
     let drawing = DrawingLayers::new(file);
     let on = |name: &str| drawing.on(name);
     drawing.require("intrados", "intrados", &layers.intrados)?;
@@ -114,12 +113,7 @@ pub fn read_arch(file: &File<'_>, options: &ArchReadOptions) -> Result<ArchReadi
     if layers.fill_required {
         drawing.require("fill", "fill", &layers.fill)?;
     }
-    if file.paper_space_kept > 0 {
-        warnings.push(format!(
-            "{} entities on the input layers are in paper space and were ignored; draw the arch in model space",
-            file.paper_space_kept
-        ));
-    }
+    let mut warnings = drawing.warnings("the arch");
 
     let (length, length_source) = length_unit(file, &options.read, &mut warnings)?;
     let extents = file.extents.rect();

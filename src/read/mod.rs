@@ -272,6 +272,19 @@ impl<'a, 'f> DrawingLayers<'a, 'f> {
         let present = if l.is_empty() { "none".to_string() } else { l.join(", ") };
         Err(ReadError::MissingLayer { role, key, layer: layer.to_string(), present })
     }
+
+    /// The scan's warnings, and one more when entities on the input layers
+    /// were in paper space: `what` says what to draw in model space.
+    pub(crate) fn warnings(&self, what: &str) -> Vec<String> {
+        let mut warnings = self.file.warnings.clone();
+        if self.file.paper_space_kept > 0 {
+            warnings.push(format!(
+                "{} entities on the input layers are in paper space and were ignored; draw {what} in model space",
+                self.file.paper_space_kept
+            ));
+        }
+        warnings
+    }
 }
 
 /// Tolerance for "vertical": |dx| at most this fraction of a line's length
@@ -281,7 +294,6 @@ const VERTICAL: f64 = 1e-9;
 /// Reads the structure from a scanned drawing.
 pub fn read(file: &File<'_>, options: &ReadOptions) -> Result<Reading, ReadError> {
     let layers = &options.layers;
-    let mut warnings: Vec<String> = file.warnings.clone();
     let drawing = DrawingLayers::new(file);
     let on = |name: &str| drawing.on(name);
     drawing.require("supports", "supports", &layers.supports)?;
@@ -292,12 +304,7 @@ pub fn read(file: &File<'_>, options: &ReadOptions) -> Result<Reading, ReadError
     if layers.sketch_required {
         drawing.require("sketch", "sketch", &layers.sketch)?;
     }
-    if file.paper_space_kept > 0 {
-        warnings.push(format!(
-            "{} entities on the input layers are in paper space and were ignored; draw supports and loads in model space",
-            file.paper_space_kept
-        ));
-    }
+    let mut warnings = drawing.warnings("supports and loads");
 
     let (length, length_source) = length_unit(file, options, &mut warnings)?;
     let extents = file.extents.rect();
