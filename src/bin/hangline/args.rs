@@ -497,11 +497,39 @@ fn distinct(output: &OutputLayers, inputs: &[&String]) -> Result<()> {
     Ok(())
 }
 
-impl ReadArgs {
-    fn label_unit(&self) -> Result<ForceUnit> {
-        self.label_unit.as_deref().map_or(Ok(ForceUnit::Kilonewton), |u| parse_unit(u, "--label-unit"))
-    }
+/// The units `--units`, `--force-unit` and `--label-unit` give: the
+/// drawing's length unit, the results' force unit, and the unit of labels
+/// written without one (kN unless given).
+fn units_given(
+    units: Option<&str>,
+    force_unit: Option<&str>,
+    label_unit: Option<&str>,
+) -> Result<(Option<LengthUnit>, Option<ForceUnit>, ForceUnit)> {
+    Ok((
+        units.map(|u| parse_unit::<LengthUnit>(u, "--units")).transpose()?,
+        force_unit.map(|u| parse_unit::<ForceUnit>(u, "--force-unit")).transpose()?,
+        label_unit.map_or(Ok(ForceUnit::Kilonewton), |u| parse_unit(u, "--label-unit"))?,
+    ))
+}
 
+/// The layout `--diagram-at` and `--text-height` ask for, and the force
+/// diagram's scale as `--force-scale` gives it.
+fn layout_given(
+    force_scale: Option<&str>,
+    diagram_at: Option<&str>,
+    text_height: Option<f64>,
+) -> Result<(LayoutOptions, Option<ForceValue>)> {
+    if let Some(h) = text_height
+        && !(h > 0.0 && h.is_finite())
+    {
+        bail!("--text-height must be a positive length in drawing units");
+    }
+    let force_scale = force_scale.map(|s| parse_force(s, "--force-scale")).transpose()?;
+    let diagram_at = diagram_at.map(|s| parse_point(s, "--diagram-at")).transpose()?;
+    Ok((LayoutOptions { diagram_at, text_height, ..LayoutOptions::default() }, force_scale))
+}
+
+impl ReadArgs {
     /// These options, with `defaults` filling what they leave out (layer
     /// renamings add up; a line's own rename of a role wins).
     pub fn or(&self, defaults: &ReadArgs) -> ReadArgs {
@@ -541,27 +569,16 @@ impl ReadArgs {
                 true
             })?;
         distinct(&output, &[&input.supports, &input.loads, &input.deck, &input.hangers, &input.sketch])?;
+        let (length_unit, force_unit, label_unit) =
+            units_given(self.units.as_deref(), self.force_unit.as_deref(), self.label_unit.as_deref())?;
         let load_scale = match &self.load_scale {
             Some(s) => {
                 let f = parse_force(s, "--load-scale")?;
-                Some((f.value, f.unit.unwrap_or(self.label_unit()?)))
+                Some((f.value, f.unit.unwrap_or(label_unit)))
             }
             None => None,
         };
-        Ok((
-            ReadOptions {
-                layers: input,
-                length_unit: self.units.as_deref().map(|u| parse_unit::<LengthUnit>(u, "--units")).transpose()?,
-                force_unit: self
-                    .force_unit
-                    .as_deref()
-                    .map(|u| parse_unit::<ForceUnit>(u, "--force-unit"))
-                    .transpose()?,
-                label_unit: self.label_unit()?,
-                load_scale,
-            },
-            output,
-        ))
+        Ok((ReadOptions { layers: input, length_unit, force_unit, label_unit, load_scale }, output))
     }
 }
 
@@ -727,26 +744,18 @@ impl SolveArgs {
         if alternatives.len() > MAX_ALTERNATIVES {
             bail!("{} alternatives given; give at most {MAX_ALTERNATIVES}", alternatives.len());
         }
-        let force_scale = match &self.force_scale {
-            Some(s) => Some(parse_force(s, "--force-scale")?),
-            None => None,
-        };
-        if let Some(h) = self.text_height
-            && !(h > 0.0 && h.is_finite())
-        {
-            bail!("--text-height must be a positive length in drawing units");
-        }
+        let (layout, force_scale) =
+            layout_given(self.force_scale.as_deref(), self.diagram_at.as_deref(), self.text_height)?;
         let self_weight = self.self_weight.as_deref().map(parse_self_weight).transpose()?;
         let axial_stiffness =
             self.axial_stiffness.as_deref().map(|s| parse_force(s, "--axial-stiffness")).transpose()?;
         let chord_tolerance =
             self.chord_tolerance.as_deref().map(|s| parse_length(s, "--chord-tolerance")).transpose()?;
-        let diagram_at = self.diagram_at.as_deref().map(|s| parse_point(s, "--diagram-at")).transpose()?;
         Ok(Job {
             read,
             form: if self.arch { Form::Arch } else { Form::Cable },
             given,
-            layout: LayoutOptions { diagram_at, text_height: self.text_height, ..LayoutOptions::default() },
+            layout,
             force_scale,
             layers,
             self_weight,
@@ -777,15 +786,10 @@ impl AssessArgs {
                 true
             })?;
         distinct(&output, &[&input.intrados, &input.extrados, &input.fill, &input.loads])?;
-        let label_unit =
-            self.label_unit.as_deref().map_or(Ok(ForceUnit::Kilonewton), |u| parse_unit(u, "--label-unit"))?;
-        let read = ReadOptions {
-            layers: InputLayers::default(),
-            length_unit: self.units.as_deref().map(|u| parse_unit::<LengthUnit>(u, "--units")).transpose()?,
-            force_unit: self.force_unit.as_deref().map(|u| parse_unit::<ForceUnit>(u, "--force-unit")).transpose()?,
-            label_unit,
-            load_scale: None,
-        };
+        let (length_unit, force_unit, label_unit) =
+            units_given(self.units.as_deref(), self.force_unit.as_deref(), self.label_unit.as_deref())?;
+        let read =
+            ReadOptions { layers: InputLayers::default(), length_unit, force_unit, label_unit, load_scale: None };
         // Zero is allowed: a weightless ring carrying only the drawn loads.
         let weight = |s: &str, flag: &str| -> Result<UnitWeight> {
             let (value, force, length) = parse_unit_weight(s.trim(), flag, true)?;
@@ -843,13 +847,8 @@ impl AssessArgs {
             }
             None => None,
         };
-        if let Some(h) = self.text_height
-            && !(h > 0.0 && h.is_finite())
-        {
-            bail!("--text-height must be a positive length in drawing units");
-        }
-        let force_scale = self.force_scale.as_deref().map(|s| parse_force(s, "--force-scale")).transpose()?;
-        let diagram_at = self.diagram_at.as_deref().map(|s| parse_point(s, "--diagram-at")).transpose()?;
+        let (layout, force_scale) =
+            layout_given(self.force_scale.as_deref(), self.diagram_at.as_deref(), self.text_height)?;
         Ok(AssessJob {
             read: ArchReadOptions { layers: input, read },
             unit_weight,
@@ -859,7 +858,7 @@ impl AssessArgs {
             voussoirs,
             trial,
             live,
-            layout: LayoutOptions { diagram_at, text_height: self.text_height, ..LayoutOptions::default() },
+            layout,
             force_scale,
             layers: output,
         })
